@@ -1,0 +1,21 @@
+// @ts-check
+import { defineConfig } from 'astro/config';
+import node from '@astrojs/node';
+import react from '@astrojs/react';
+import tailwindcss from '@tailwindcss/vite';
+
+// Server-rendered app on the Node adapter in standalone mode: `node dist/server/entry.mjs`
+// honours HOST and PORT. Origin checks on state-changing requests are done by our own
+// middleware against the configured BASE_URL (see DEVELOPERS.md, Decisions), because Astro's
+// built-in check is fixed at build time and the deployment's host is only known at run time.
+export default defineConfig({
+  output: 'server',
+  adapter: node({ mode: 'standalone' }),
+  integrations: [react()],
+  security: { checkOrigin: false },
+  devToolbar: { enabled: false },
+  vite: {
+    plugins: [tailwindcss()],
+    ssr: { external: ['@libsql/client', 'libsql', 'nodemailer', 'maildev'] },
+  },
+});

@@ -1,0 +1,86 @@
+/**
+ * The OpenAPI document, generated from the same zod schemas the endpoints validate with.
+ * Every file under src/pages/api/ must appear here (a test enforces it).
+ */
+import { OpenAPIRegistry, OpenApiGeneratorV31 } from '@asteasolutions/zod-to-openapi';
+import { z } from 'zod';
+import { ErrorBodySchema } from './errors';
+import { SiteCreateSchema, SiteSchema, SiteUpdateSchema } from '../schemas/site';
+import { InvitationSchema, InviteSchema, MemberRoleSchema, MemberSchema, MeSchema, WorkspaceCreateSchema, WorkspaceSchema, WorkspaceSwitchSchema } from '../schemas/workspace';
+
+type Method = 'get' | 'post' | 'put' | 'patch' | 'delete';
+export type RouteDoc = {
+  method: Method;
+  path: string;
+  summary: string;
+  tag: string;
+  permission: string;
+  params?: z.ZodObject;
+  body?: z.ZodType;
+  ok: { status: number; schema?: z.ZodType; description: string };
+  errors?: number[];
+};
+
+const siteParams = z.object({ siteId: z.string().meta({ description: 'Site id', example: 'site_3fQk...' }) });
+const memberParams = z.object({ memberId: z.string() });
+const invitationParams = z.object({ invitationId: z.string() });
+
+export const ROUTES: RouteDoc[] = [
+  { method: 'get', path: '/api/health', summary: 'Liveness and database check', tag: 'System', permission: 'public', ok: { status: 200, schema: z.object({ ok: z.boolean() }), description: 'Up' } },
+  { method: 'get', path: '/api/openapi.json', summary: 'This document', tag: 'System', permission: 'public', ok: { status: 200, description: 'OpenAPI 3.1 document' } },
+  { method: 'get', path: '/api/me', summary: 'The signed-in person, active workspace, permissions and all workspaces', tag: 'Workspaces', permission: 'signed in', ok: { status: 200, schema: MeSchema, description: 'Current person' }, errors: [401] },
+  { method: 'get', path: '/api/workspaces', summary: "List the caller's workspaces", tag: 'Workspaces', permission: 'signed in', ok: { status: 200, schema: z.object({ workspaces: z.array(WorkspaceSchema) }), description: 'Workspaces' }, errors: [401] },
+  { method: 'post', path: '/api/workspaces', summary: 'Create a workspace (caller becomes Owner)', tag: 'Workspaces', permission: 'signed in', body: WorkspaceCreateSchema, ok: { status: 201, schema: z.object({ workspace: WorkspaceSchema }), description: 'Created' }, errors: [400, 401] },
+  { method: 'put', path: '/api/workspaces/active', summary: 'Switch the active workspace', tag: 'Workspaces', permission: 'signed in', body: WorkspaceSwitchSchema, ok: { status: 200, schema: z.object({ workspace: WorkspaceSchema }), description: 'Switched' }, errors: [400, 401, 404] },
+  { method: 'get', path: '/api/members', summary: 'Members of the active workspace', tag: 'Members', permission: 'site:view', ok: { status: 200, schema: z.object({ members: z.array(MemberSchema) }), description: 'Members' }, errors: [401] },
+  { method: 'patch', path: '/api/members/{memberId}', summary: "Change a member's role", tag: 'Members', permission: 'members:manage', params: memberParams, body: MemberRoleSchema, ok: { status: 200, description: 'Changed' }, errors: [400, 401, 403, 404, 409] },
+  { method: 'delete', path: '/api/members/{memberId}', summary: 'Remove a member', tag: 'Members', permission: 'members:manage', params: memberParams, ok: { status: 204, description: 'Removed' }, errors: [401, 403, 404, 409] },
+  { method: 'get', path: '/api/invitations', summary: 'Pending invitations of the active workspace', tag: 'Members', permission: 'members:manage', ok: { status: 200, schema: z.object({ invitations: z.array(InvitationSchema) }), description: 'Invitations' }, errors: [401, 403] },
+  { method: 'post', path: '/api/invitations', summary: 'Invite someone by e-mail with a role', tag: 'Members', permission: 'members:manage', body: InviteSchema, ok: { status: 201, schema: z.object({ invitation: InvitationSchema }), description: 'Invitation sent' }, errors: [400, 401, 403, 409] },
+  { method: 'get', path: '/api/invitations/{invitationId}', summary: 'Read an invitation addressed to the caller', tag: 'Members', permission: 'invitee', params: invitationParams, ok: { status: 200, schema: z.object({ invitation: InvitationSchema }), description: 'Invitation' }, errors: [401, 404] },
+  { method: 'delete', path: '/api/invitations/{invitationId}', summary: 'Cancel a pending invitation', tag: 'Members', permission: 'members:manage', params: invitationParams, ok: { status: 204, description: 'Cancelled' }, errors: [401, 403, 404] },
+  { method: 'post', path: '/api/invitations/{invitationId}/accept', summary: 'Accept an invitation and switch to its workspace', tag: 'Members', permission: 'invitee', params: invitationParams, ok: { status: 200, schema: z.object({ workspace: z.object({ id: z.string(), name: z.string(), role: z.string().nullable() }) }), description: 'Joined' }, errors: [401, 404, 409, 410] },
+  { method: 'get', path: '/api/sites', summary: 'Sites of the active workspace', tag: 'Sites', permission: 'site:view', ok: { status: 200, schema: z.object({ sites: z.array(SiteSchema) }), description: 'Sites' }, errors: [401] },
+  { method: 'post', path: '/api/sites', summary: 'Create a site', tag: 'Sites', permission: 'site:create', body: SiteCreateSchema, ok: { status: 201, schema: z.object({ site: SiteSchema }), description: 'Created' }, errors: [400, 401, 403, 409] },
+  { method: 'get', path: '/api/sites/{siteId}', summary: 'Read a site', tag: 'Sites', permission: 'site:view', params: siteParams, ok: { status: 200, schema: z.object({ site: SiteSchema }), description: 'Site' }, errors: [401, 404] },
+  { method: 'patch', path: '/api/sites/{siteId}', summary: 'Rename a site or change its details', tag: 'Sites', permission: 'site:edit', params: siteParams, body: SiteUpdateSchema, ok: { status: 200, schema: z.object({ site: SiteSchema }), description: 'Updated' }, errors: [400, 401, 403, 404, 409] },
+  { method: 'delete', path: '/api/sites/{siteId}', summary: 'Delete a site and everything recorded for it', tag: 'Sites', permission: 'site:delete', params: siteParams, ok: { status: 204, description: 'Deleted' }, errors: [401, 403, 404] },
+];
+
+const ERROR_TEXT: Record<number, string> = {
+  400: 'Invalid input; `error.fields` names each bad field',
+  401: 'Not signed in',
+  403: 'Role does not allow this, or the request came from another origin',
+  404: 'Not found in the active workspace',
+  409: 'Conflict with existing data',
+  410: 'Expired',
+  413: 'Body too large',
+  415: 'Body is not JSON',
+};
+
+/** Builds the OpenAPI 3.1 document. */
+export function buildOpenApi(baseUrl: string) {
+  const registry = new OpenAPIRegistry();
+  registry.registerComponent('securitySchemes', 'session', { type: 'apiKey', in: 'cookie', name: 'varledger.session_token', description: 'Session cookie set by POST /api/auth/sign-in/email' });
+  for (const r of ROUTES) {
+    const responses: Record<string, { description: string; content?: Record<string, { schema: z.ZodType }> }> = {
+      [r.ok.status]: { description: r.ok.description, ...(r.ok.schema ? { content: { 'application/json': { schema: r.ok.schema } } } : {}) },
+    };
+    for (const s of r.errors ?? []) responses[s] = { description: ERROR_TEXT[s] ?? 'Error', content: { 'application/json': { schema: ErrorBodySchema } } };
+    registry.registerPath({
+      method: r.method,
+      path: r.path,
+      summary: r.summary,
+      description: `Permission: ${r.permission}.`,
+      tags: [r.tag],
+      ...(r.permission === 'public' ? {} : { security: [{ session: [] }] }),
+      request: { ...(r.params ? { params: r.params } : {}), ...(r.body ? { body: { required: true, content: { 'application/json': { schema: r.body } } } } : {}) },
+      responses,
+    });
+  }
+  return new OpenApiGeneratorV31(registry.definitions).generateDocument({
+    openapi: '3.1.0',
+    info: { title: 'Varledger API', version: '0.1.0', description: 'JSON API of Varledger. Authentication routes live under /api/auth (better-auth). Errors share one shape: { error: { code, message, fields? } }.' },
+    servers: [{ url: baseUrl }],
+  });
+}

@@ -1,0 +1,67 @@
+/**
+ * The one place that reads process.env. Every setting has an embedded default so the app
+ * starts with no configuration at all; a bad value stops start-up with a readable list.
+ */
+import { z } from 'zod';
+import { randomBytes } from 'node:crypto';
+import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
+import { dirname } from 'node:path';
+
+const port = (def: number) => z.coerce.number().int().min(0).max(65535).default(def);
+
+const EnvSchema = z.object({
+  NODE_ENV: z.enum(['development', 'production', 'test']).default('development'),
+  HOST: z.string().min(1).default('127.0.0.1'),
+  PORT: port(4321),
+  BASE_URL: z.url().optional().describe('Public URL of the app; defaults to http://HOST:PORT'),
+  DATABASE_URL: z.string().min(1).default('file:./data/varledger.db'),
+  DATABASE_AUTH_TOKEN: z.string().optional(),
+  DATA_DIR: z.string().min(1).default('./data'),
+  AUTH_SECRET: z.string().min(32, 'AUTH_SECRET must be at least 32 characters').optional(),
+  SMTP_HOST: z.string().min(1).default('127.0.0.1'),
+  SMTP_PORT: port(1025),
+  SMTP_USER: z.string().optional(),
+  SMTP_PASSWORD: z.string().optional(),
+  SMTP_SECURE: z.enum(['true', 'false']).default('false'),
+  MAIL_FROM: z.string().min(3).default('Varledger <no-reply@varledger.local>'),
+  MAIL_SINK: z.enum(['on', 'off']).default('on').describe('Start the local SMTP sink with `npm start` (turn off when SMTP_HOST is a real server)'),
+  MAIL_SINK_WEB_PORT: port(1080),
+  SECURE_COOKIES: z.enum(['auto', 'true', 'false']).default('auto'),
+});
+
+export type AppConfig = z.infer<typeof EnvSchema> & { baseUrl: string; authSecret: string; secureCookies: boolean; mailboxUrl: string };
+
+let cached: AppConfig | undefined;
+
+/** Reads, validates and caches the configuration; throws with every bad field listed. */
+export function getConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
+  if (cached && env === process.env) return cached;
+  const parsed = EnvSchema.safeParse(env);
+  if (!parsed.success) {
+    const lines = parsed.error.issues.map((i) => `  ${i.path.join('.')}: ${i.message}`);
+    throw new Error(`Varledger cannot start: bad configuration\n${lines.join('\n')}`);
+  }
+  const v = parsed.data;
+  const baseUrl = (v.BASE_URL ?? `http://${v.HOST === '0.0.0.0' ? '127.0.0.1' : v.HOST}:${v.PORT}`).replace(/\/$/, '');
+  const secureCookies = v.SECURE_COOKIES === 'auto' ? baseUrl.startsWith('https://') : v.SECURE_COOKIES === 'true';
+  const mailboxUrl = `http://127.0.0.1:${v.MAIL_SINK_WEB_PORT}`;
+  const config: AppConfig = { ...v, baseUrl, authSecret: v.AUTH_SECRET ?? localSecret(v.DATA_DIR), secureCookies, mailboxUrl };
+  if (env === process.env) cached = config;
+  return config;
+}
+
+/**
+ * Without AUTH_SECRET a random secret is made once and kept in the data folder, so sessions
+ * survive restarts on one machine. Several app instances must share AUTH_SECRET instead.
+ */
+function localSecret(dataDir: string): string {
+  const file = `${dataDir}/auth-secret`;
+  if (existsSync(file)) return readFileSync(file, 'utf8').trim();
+  mkdirSync(dirname(file), { recursive: true });
+  const secret = randomBytes(32).toString('hex');
+  writeFileSync(file, secret, { mode: 0o600 });
+  return secret;
+}
+
+/** Every setting with its default, for the README and `--help`. */
+export const CONFIG_DOC = EnvSchema.shape;

@@ -1,0 +1,15 @@
+/** Records who did what in a workspace (read by Owners). */
+import { desc, eq } from 'drizzle-orm';
+import type { Db } from './client';
+import { newId } from './ids';
+import { auditEvent } from './schema';
+
+export type AuditEntry = { action: string; subjectType: string; subjectId?: string | null; detail?: Record<string, unknown> };
+
+export async function recordEvent(db: Db, organizationId: string, actorUserId: string | null, e: AuditEntry): Promise<void> {
+  await db.insert(auditEvent).values({ id: newId('evt'), organizationId, actorUserId, action: e.action, subjectType: e.subjectType, subjectId: e.subjectId ?? null, detail: e.detail ?? null });
+}
+
+export async function listEvents(db: Db, organizationId: string, limit = 200) {
+  return db.select().from(auditEvent).where(eq(auditEvent.organizationId, organizationId)).orderBy(desc(auditEvent.createdAt)).limit(limit);
+}

@@ -1,0 +1,66 @@
+/**
+ * Every request: origin check on state-changing calls, session and active workspace into
+ * Astro.locals, security headers on the way out.
+ */
+import { defineMiddleware } from 'astro:middleware';
+import { auth } from './lib/auth/auth';
+import { getConfig } from './lib/config';
+import { getDb } from './lib/db/client';
+import { resolveWorkspace } from './lib/db/workspaces';
+import { errorResponse, ApiError } from './lib/api/errors';
+
+const cfg = getConfig();
+const SAFE = new Set(['GET', 'HEAD', 'OPTIONS']);
+
+const SECURITY_HEADERS: Record<string, string> = {
+  'x-content-type-options': 'nosniff',
+  'x-frame-options': 'DENY',
+  'referrer-policy': 'same-origin',
+  'cross-origin-opener-policy': 'same-origin',
+  'permissions-policy': 'camera=(), microphone=(), geolocation=()',
+  'content-security-policy': [
+    "default-src 'self'",
+    "script-src 'self' 'unsafe-inline'",
+    "style-src 'self' 'unsafe-inline'",
+    "img-src 'self' data: blob:",
+    "font-src 'self'",
+    "connect-src 'self'",
+    "frame-ancestors 'none'",
+    "form-action 'self'",
+    "base-uri 'self'",
+    "object-src 'none'",
+  ].join('; '),
+};
+
+/** A state-changing request must come from our own pages (or a non-browser client sending no cookie). */
+function originAllowed(request: Request): boolean {
+  const origin = request.headers.get('origin');
+  if (origin) return origin === cfg.baseUrl;
+  // No Origin header: only acceptable without a session cookie (scripts, webhooks, curl).
+  return !(request.headers.get('cookie') ?? '').includes('varledger');
+}
+
+export const onRequest = defineMiddleware(async (context, next) => {
+  context.locals.user = null;
+  context.locals.session = null;
+  context.locals.workspace = null;
+  if (context.isPrerendered) return next();
+
+  const { request } = context;
+  const path = context.url.pathname;
+  if (!SAFE.has(request.method) && !path.startsWith('/api/auth/') && !originAllowed(request)) {
+    return errorResponse(new ApiError(403, 'bad_origin', 'This request did not come from a Varledger page. Reload the page and try again.'));
+  }
+
+  const found = await auth.api.getSession({ headers: request.headers });
+  if (found) {
+    context.locals.user = found.user;
+    context.locals.session = found.session;
+    context.locals.workspace = await resolveWorkspace(getDb(), found.user.id, found.session.activeOrganizationId);
+  }
+
+  const response = await next();
+  for (const [k, v] of Object.entries(SECURITY_HEADERS)) if (!response.headers.has(k)) response.headers.set(k, v);
+  if (path.startsWith('/api/')) response.headers.set('cache-control', 'no-store');
+  return response;
+});

@@ -1,0 +1,13 @@
+/** `npm run seed`: migrates, then seeds the demo scenario (idempotent). */
+import { getConfig } from '../lib/config';
+import { openDb } from '../lib/db/client';
+import { applyMigrations } from '../lib/db/migrate';
+import { seedDemo } from '../lib/demo/seed';
+
+const cfg = getConfig();
+const { db, ready } = openDb(cfg.DATABASE_URL, cfg.DATABASE_AUTH_TOKEN);
+await ready;
+await applyMigrations(db);
+const s = await seedDemo(db);
+console.log(`Demo seeded: ${s.people} people, ${s.workspaces} workspaces, ${s.sites} sites (${s.created} objects created now).`);
+db.$client.close();

@@ -1,0 +1,55 @@
+import { z } from 'zod';
+import { touWindowSchema } from './tou-window';
+
+/** Which kvarh registers make up a period's reactive energy. */
+export const kvarhBasisSchema = z
+  .enum(['lagging', 'net', 'absolute'])
+  .describe('kvarh basis: lagging only (leading ignored), net (lagging minus leading, not below zero), or absolute (lagging plus leading).');
+export type KvarhBasis = z.infer<typeof kvarhBasisSchema>;
+
+/** Which PF a rule compares: the period average or the PF at the kW peak. */
+export const pfBasisSchema = z
+  .enum(['average', 'at-peak'])
+  .describe('PF used: period average from energy totals, or the PF of the peak-kW demand reading.');
+export type PfBasis = z.infer<typeof pfBasisSchema>;
+
+export const roundingModeSchema = z.enum(['nearest', 'down', 'up']).describe('Rounding direction.');
+export type RoundingMode = z.infer<typeof roundingModeSchema>;
+
+/** How the measured PF is rounded before it is compared (tariffs print 2 or 3 decimals). */
+export const pfRoundingSchema = z
+  .object({
+    decimals: z.number().int().min(1).max(6).describe('Decimals the PF is rounded to before comparison.'),
+    mode: roundingModeSchema,
+  })
+  .describe('Rounding of the measured PF before it is compared with the target.');
+export type PfRounding = z.infer<typeof pfRoundingSchema>;
+
+const pfValue = z.number().gt(0).max(1);
+
+/** Reactive allowance, as a PF (k = tan(acos(pf))) or as kvar per kW directly. */
+export const allowanceSchema = z
+  .discriminatedUnion('basis', [
+    z.object({ basis: z.literal('pf'), pf: pfValue.describe('PF at which reactive use is free; k = tan(acos(pf)).') }),
+    z.object({ basis: z.literal('ratio'), kvarPerKw: z.number().min(0).max(10).describe('Free kvar per kW (or kvarh per kWh), e.g. 0.3333.') }),
+  ])
+  .describe('Reactive allowance before a charge applies.');
+export type Allowance = z.infer<typeof allowanceSchema>;
+
+/** Demand ratchet: billed = max(this period, fraction x highest of the previous N). */
+export const ratchetSchema = z
+  .object({
+    fraction: z.number().gt(0).max(1).describe('Share of the highest earlier billed demand that sets a floor, e.g. 0.8.'),
+    lookbackPeriods: z.number().int().min(1).max(36).default(11).describe('How many earlier periods the ratchet looks back over.'),
+  })
+  .describe('Demand ratchet.');
+export type Ratchet = z.infer<typeof ratchetSchema>;
+
+/** Fields every rule carries. */
+export const ruleBaseShape = {
+  id: z.string().min(1).max(60).describe('Identifier of this rule within its tariff, stable across versions.'),
+  name: z.string().max(120).optional().describe('Name shown on reports, e.g. the clause title on the tariff sheet.'),
+  window: touWindowSchema.optional().describe('Limit the rule to a time-of-use window; absent means all hours.'),
+};
+
+export const pfTarget = pfValue;

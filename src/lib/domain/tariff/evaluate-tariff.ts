@@ -1,0 +1,123 @@
+import { expectedIntervals, type Period } from '../periods/period';
+import { aggregate, type ReactiveCorrection } from '../power/aggregate-kernel';
+import { createAggregationPlan, type AggregationPlan } from '../power/aggregation-plan';
+import { readAggregate, type WindowAggregate } from '../power/window-aggregate';
+import type { IntervalSeries } from '../series/interval-series';
+import { describeWindow, type TouWindow } from './tou-window';
+import type { EnteredAmounts, RuleMemory, RuleOutcome } from './rule-contract';
+import { evaluateRule, ruleTypeLabel, type TariffRule } from './rule-registry';
+import type { Tariff } from './tariff-schema';
+import { historyMemory, type PriorPeriod } from './history';
+
+export interface EvaluateOptions {
+  /** Bills before the interval data, oldest first, for ratchets. */
+  history?: readonly PriorPeriod[];
+  /** Bill amounts per period id, for rules whose base is an entered amount. */
+  amounts?: Readonly<Record<string, EnteredAmounts>>;
+}
+
+/** One rule's result in one period. */
+export interface RuleResult extends RuleOutcome {
+  ruleId: string;
+  type: TariffRule['type'];
+  /** The rule's own name, else its type label. */
+  ruleLabel: string;
+  /** The time-of-use window's description, null for all hours. */
+  windowLabel: string | null;
+}
+
+export interface PeriodCharges {
+  periodId: string;
+  label: string;
+  /** Sum of the rules' amounts (credits negative). */
+  total: number;
+  rules: RuleResult[];
+  /** Data-quality notes that affect these figures. */
+  warnings: string[];
+}
+
+export interface TariffEvaluation {
+  tariffName: string;
+  currency: string;
+  periods: PeriodCharges[];
+  total: number;
+  byRule: { ruleId: string; ruleLabel: string; total: number }[];
+}
+
+/** A tariff bound to a series and periods; reusable across correction scenarios. */
+export interface PreparedTariff {
+  tariff: Tariff;
+  plan: AggregationPlan;
+  /** Aggregation window index of each rule (0 = all hours). */
+  ruleWindow: number[];
+}
+
+/** Binds a parsed tariff to a series and periods: windows, demand readings, peaks. */
+export function prepareTariff(tariff: Tariff, series: IntervalSeries, periods: readonly Period[]): PreparedTariff {
+  const windows: TouWindow[] = [];
+  const keys: string[] = [];
+  const ruleWindow = tariff.rules.map((rule) => {
+    if (!rule.window) return 0;
+    const key = JSON.stringify(rule.window);
+    let k = keys.indexOf(key);
+    if (k < 0) {
+      k = keys.push(key) - 1;
+      windows.push(rule.window);
+    }
+    return k + 1;
+  });
+  const plan = createAggregationPlan(series, periods, {
+    windows,
+    holidays: tariff.holidays,
+    demandWindowMinutes: tariff.demandWindowMinutes ?? series.intervalMinutes,
+    demandMethod: tariff.demandMethod,
+  });
+  return { tariff, plan, ruleWindow };
+}
+
+/**
+ * Evaluates a prepared tariff under a reactive correction (none for the site as
+ * metered). Periods run in order so ratchets see earlier periods.
+ */
+export function evaluatePrepared(prep: PreparedTariff, correction?: ReactiveCorrection, opts: EvaluateOptions = {}): TariffEvaluation {
+  const { tariff, plan, ruleWindow } = prep;
+  aggregate(plan, correction);
+  const memories: RuleMemory[][] = tariff.rules.map((rule) => historyMemory(rule, opts.history ?? []));
+  const byRule = tariff.rules.map((rule) => ({ ruleId: rule.id, ruleLabel: rule.name ?? ruleTypeLabel(rule.type), total: 0 }));
+  let total = 0;
+  const periods = plan.periods.map((period, p) => {
+    const rules = tariff.rules.map((rule, r) => {
+      const agg = readAggregate(plan, p, ruleWindow[r]);
+      const outcome = evaluateRule(rule, { agg, period, currency: tariff.currency, memory: memories[r], amounts: opts.amounts?.[period.id] });
+      if (outcome.memory) memories[r].push(outcome.memory);
+      byRule[r].total += outcome.amount;
+      const result: RuleResult = {
+        ...outcome,
+        ruleId: rule.id,
+        type: rule.type,
+        ruleLabel: byRule[r].ruleLabel,
+        windowLabel: rule.window ? describeWindow(rule.window) : null,
+      };
+      return result;
+    });
+    const periodTotal = rules.reduce((s, r) => s + r.amount, 0);
+    total += periodTotal;
+    return { periodId: period.id, label: period.label, total: periodTotal, rules, warnings: periodWarnings(period, readAggregate(plan, p, 0), plan.series.intervalMinutes) };
+  });
+  return { tariffName: tariff.name, currency: tariff.currency, periods, total, byRule };
+}
+
+/** Evaluates a tariff on a series over periods: the PF-related charge per period and rule. */
+export function evaluateTariff(tariff: Tariff, series: IntervalSeries, periods: readonly Period[], opts: EvaluateOptions = {}): TariffEvaluation {
+  return evaluatePrepared(prepareTariff(tariff, series, periods), undefined, opts);
+}
+
+function periodWarnings(period: Period, all: WindowAggregate, intervalMinutes: number): string[] {
+  const out: string[] = [];
+  const expected = expectedIntervals(period, intervalMinutes);
+  const present = all.importIntervals + all.zeroKwIntervals + all.exportIntervals;
+  if (present < expected) out.push(`${expected - present} of ${expected} intervals are missing: peaks and totals may be understated.`);
+  if (all.reactiveMissingIntervals > 0) out.push(`${all.reactiveMissingIntervals} intervals have no kvarh reading: average PF is overstated.`);
+  if (all.exportIntervals > 0) out.push(`${all.exportIntervals} intervals exported power; they are left out of PF figures.`);
+  return out;
+}

@@ -1,0 +1,15 @@
+/** Debian's Chromium driven by playwright-core (never a downloaded browser). */
+import { chromium, type Browser } from 'playwright-core';
+import { existsSync, mkdirSync } from 'node:fs';
+
+export const CHROMIUM = process.env.CHROMIUM_PATH ?? '/usr/bin/chromium';
+export const SHOTS = 'test-results/screenshots';
+
+export async function launch(): Promise<Browser> {
+  if (!existsSync(CHROMIUM)) throw new Error(`Chromium not found at ${CHROMIUM}: install Debian's chromium package (apt-get install -y chromium).`);
+  mkdirSync(SHOTS, { recursive: true });
+  return chromium.launch({
+    executablePath: CHROMIUM,
+    args: ['--headless', '--no-sandbox', '--disable-gpu', '--disable-quic', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--no-first-run', '--disable-dev-shm-usage'],
+  });
+}

@@ -1,0 +1,62 @@
+/**
+ * Integration and browser tests run against real parts: a migrated temporary SQLite file,
+ * the built app server over HTTP, and the maildev SMTP sink. Started once for the run.
+ */
+import type { TestProject } from 'vitest/node';
+import { mkdtempSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { createServer } from 'node:net';
+import { openDb } from '../../src/lib/db/client';
+import { applyMigrations } from '../../src/lib/db/migrate';
+import { seedDemo } from '../../src/lib/demo/seed';
+import { startMailSink } from '../../src/scripts/lib/mail-sink';
+import { startAppServer } from '../../src/scripts/lib/app-server';
+
+declare module 'vitest' {
+  export interface ProvidedContext {
+    baseUrl: string;
+    mailboxUrl: string;
+    databaseUrl: string;
+    dataDir: string;
+  }
+}
+
+export function freePort(): Promise<number> {
+  return new Promise((resolve, reject) => {
+    const s = createServer();
+    s.once('error', reject);
+    s.listen(0, '127.0.0.1', () => {
+      const { port } = s.address() as { port: number };
+      s.close(() => resolve(port));
+    });
+  });
+}
+
+export default async function setup(project: TestProject) {
+  const dataDir = mkdtempSync(join(tmpdir(), 'varledger-test-'));
+  const databaseUrl = `file:${join(dataDir, 'test.db')}`;
+  const { db, ready } = openDb(databaseUrl);
+  await ready;
+  await applyMigrations(db);
+  await seedDemo(db);
+  db.$client.close();
+
+  const [smtpPort, webPort, appPort] = [await freePort(), await freePort(), await freePort()];
+  const sink = await startMailSink({ smtpPort, webPort, mailDirectory: join(dataDir, 'mail') });
+  const baseUrl = `http://127.0.0.1:${appPort}`;
+  const app = await startAppServer(
+    { HOST: '127.0.0.1', PORT: String(appPort), BASE_URL: baseUrl, DATABASE_URL: databaseUrl, DATA_DIR: dataDir, SMTP_PORT: String(smtpPort), MAIL_SINK_WEB_PORT: String(webPort), NODE_ENV: 'test' },
+    { quiet: true },
+  );
+  project.provide('baseUrl', baseUrl);
+  project.provide('mailboxUrl', sink.url);
+  project.provide('databaseUrl', databaseUrl);
+  project.provide('dataDir', dataDir);
+
+  return async () => {
+    await app.stop();
+    await sink.stop();
+    rmSync(dataDir, { recursive: true, force: true });
+  };
+}

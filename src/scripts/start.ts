@@ -7,6 +7,7 @@ import { openDb } from '../lib/db/client';
 import { applyMigrations } from '../lib/db/migrate';
 import { seedDemo } from '../lib/demo/seed';
 import { DEMO_PASSWORD, DEMO_PEOPLE, DEMO_WORKSPACES } from '../lib/demo/scenario';
+import { ROLE_LABELS } from '../lib/auth/permissions';
 import { startMailSink, type MailSink } from './lib/mail-sink';
 import { startAppServer } from './lib/app-server';
 
@@ -37,7 +38,10 @@ if (cfg.MAIL_SINK === 'on') {
 const app = await startAppServer({ HOST: cfg.HOST, PORT: String(cfg.PORT), NODE_ENV: process.env.NODE_ENV ?? 'production' });
 
 const pad = (s: string, n: number) => s.padEnd(n);
-const roleOf = (key: string) => DEMO_WORKSPACES[0]!.members.find(([k]) => k === key)?.[1] ?? '';
+const roleOf = (key: string) => {
+  const role = DEMO_WORKSPACES[0]!.members.find(([k]) => k === key)?.[1];
+  return role ? ROLE_LABELS[role] : '';
+};
 console.log(`
 Varledger is running at ${cfg.baseUrl}
   database  ${cfg.DATABASE_URL}  (demo: ${seeded.workspaces} workspaces, ${seeded.sites} sites; ${seeded.created} objects created now)

@@ -1,0 +1,60 @@
+import { ZERO_KWH } from '../power/aggregate-fields';
+import { tanPhi } from '../power/quantities';
+import type { IntervalSeries } from '../series/interval-series';
+import { voltageScale, } from './formulas';
+import type { FixedBank, SwitchedBank } from './bank-spec';
+
+/** Leading kvarh a fixed bank supplies in every interval, after voltage scaling. */
+export function fixedBankKvarhPerInterval(series: Pick<IntervalSeries, 'intervalMinutes'>, bank: FixedBank): number {
+  return bank.kvar * voltageScale(bank.serviceVoltageV, bank.ratedVoltageV) * (series.intervalMinutes / 60);
+}
+
+const EPS = 1e-9;
+
+/**
+ * Fills `out` with the kvarh a switched bank supplies in each interval and returns
+ * the number of step-switchings. The controller looks at each interval's average kW
+ * and kvar: it adds steps in order while PF is below the target and stops before a
+ * step would take the site past unity (or past the leading limit). No load or export:
+ * all steps off. Allocates nothing, so the sizing search can call it per candidate.
+ */
+export function switchedBankKvarhInto(series: IntervalSeries, bank: SwitchedBank, out: Float64Array): number {
+  const scale = voltageScale(bank.serviceVoltageV, bank.ratedVoltageV);
+  const toPower = 60 / series.intervalMinutes;
+  const toEnergy = 1 / toPower;
+  const tanTarget = tanPhi(bank.targetPf);
+  const tanLimit = bank.leadingLimitPf >= 1 ? 0 : tanPhi(bank.leadingLimitPf);
+  const steps = bank.stepsKvar.map((k) => k * scale);
+  const n = steps.length;
+  const equal = steps.every((s) => Math.abs(s - steps[0]) < 1e-12);
+  const step = steps[0];
+  const cum = new Float64Array(n + 1);
+  for (let k = 0; k < n; k++) cum[k + 1] = cum[k] + steps[k];
+  const { kwh, kvarhLag, kvarhLead } = series;
+  let previous = 0;
+  let switchings = 0;
+  for (let i = 0; i < series.length; i++) {
+    const e = kwh[i];
+    let k = 0;
+    if (e > ZERO_KWH) {
+      const p = e * toPower;
+      const q = (kvarhLag[i] - kvarhLead[i]) * toPower;
+      const need = q - p * tanTarget;
+      const room = q + p * tanLimit;
+      if (need > EPS && room > EPS) {
+        if (equal) {
+          k = Math.min(n, Math.ceil(need / step - EPS), Math.floor(room / step + EPS));
+        } else {
+          while (k < n && q - cum[k] > p * tanTarget + EPS && cum[k + 1] <= room + EPS) k++;
+        }
+        if (k < 0) k = 0;
+      }
+    }
+    out[i] = cum[k] * toEnergy;
+    if (k !== previous) {
+      switchings += Math.abs(k - previous);
+      previous = k;
+    }
+  }
+  return switchings;
+}

@@ -4,7 +4,7 @@
  * the rest are Varledger's workspace tables, each carrying the organization id.
  * Migrations are generated from this file by drizzle-kit into drizzle/ (never hand-edited).
  */
-import { sqliteTable, text, integer, real, index, uniqueIndex } from 'drizzle-orm/sqlite-core';
+import { sqliteTable, text, integer, real, blob, index, uniqueIndex, primaryKey } from 'drizzle-orm/sqlite-core';
 import { sql } from 'drizzle-orm';
 
 const createdAt = () => integer('created_at', { mode: 'timestamp_ms' }).notNull().default(sql`(unixepoch() * 1000)`);
@@ -145,3 +145,131 @@ export const auditEvent = sqliteTable(
 );
 
 export const authSchema = { user, session, account, verification, organization, member, invitation };
+
+/** A meter at a site (one supply point may have several, e.g. main and sub-meters). */
+export const meter = sqliteTable(
+  'meter',
+  {
+    id: text('id').primaryKey(),
+    organizationId: text('organization_id').notNull().references(() => organization.id, { onDelete: 'cascade' }),
+    siteId: text('site_id').notNull().references(() => site.id, { onDelete: 'cascade' }),
+    name: text('name').notNull(),
+    intervalMinutes: integer('interval_minutes'),
+    reactiveSource: text('reactive_source', { enum: ['registers', 'net', 'none'] }),
+    /** The last confirmed column mapping, offered for the next import of this meter. */
+    importProfile: text('import_profile', { mode: 'json' }).$type<Record<string, unknown>>(),
+    createdAt: createdAt(),
+  },
+  (t) => [uniqueIndex('meter_site_name_idx').on(t.siteId, t.name), index('meter_org_idx').on(t.organizationId)],
+);
+
+/** A file kept in the content-addressed store (DATA_DIR/files/<sha256>), per workspace. */
+export const storedFile = sqliteTable(
+  'stored_file',
+  {
+    id: text('id').primaryKey(),
+    organizationId: text('organization_id').notNull().references(() => organization.id, { onDelete: 'cascade' }),
+    siteId: text('site_id').references(() => site.id, { onDelete: 'cascade' }),
+    kind: text('kind', { enum: ['meter-data', 'bill-document', 'bill-history'] }).notNull(),
+    sha256: text('sha256').notNull(),
+    fileName: text('file_name').notNull(),
+    contentType: text('content_type').notNull(),
+    bytes: integer('bytes').notNull(),
+    createdBy: text('created_by'),
+    createdAt: createdAt(),
+  },
+  (t) => [uniqueIndex('stored_file_site_kind_sha_idx').on(t.siteId, t.kind, t.sha256), index('stored_file_org_idx').on(t.organizationId)],
+);
+
+/** One meter-data upload: its mapping, outcome, data-quality report and problems. */
+export const meterImport = sqliteTable(
+  'meter_import',
+  {
+    id: text('id').primaryKey(),
+    organizationId: text('organization_id').notNull().references(() => organization.id, { onDelete: 'cascade' }),
+    siteId: text('site_id').notNull().references(() => site.id, { onDelete: 'cascade' }),
+    fileId: text('file_id').notNull().references(() => storedFile.id, { onDelete: 'cascade' }),
+    status: text('status', { enum: ['processing', 'imported', 'rejected', 'interrupted'] }).notNull(),
+    mapping: text('mapping', { mode: 'json' }).$type<Record<string, unknown>>().notNull(),
+    quality: text('quality', { mode: 'json' }).$type<Record<string, unknown>>(),
+    problems: text('problems', { mode: 'json' }).$type<unknown[]>(),
+    totalProblems: integer('total_problems').notNull().default(0),
+    bytesTotal: integer('bytes_total').notNull().default(0),
+    bytesProcessed: integer('bytes_processed').notNull().default(0),
+    rowsProcessed: integer('rows_processed').notNull().default(0),
+    intervals: integer('intervals').notNull().default(0),
+    firstStartMs: integer('first_start_ms'),
+    lastStartMs: integer('last_start_ms'),
+    replaced: integer('replaced', { mode: 'boolean' }).notNull().default(false),
+    createdBy: text('created_by'),
+    createdAt: createdAt(),
+    finishedAt: integer('finished_at', { mode: 'timestamp_ms' }),
+  },
+  (t) => [index('meter_import_site_idx').on(t.siteId, t.createdAt), index('meter_import_org_idx').on(t.organizationId)],
+);
+
+/**
+ * Interval data, packed: one row per meter and UTC day holding that day's intervals as
+ * little-endian typed-array blobs (Float64 start ms, kWh, kvarh lagging, kvarh leading;
+ * Uint8 flags). See DEVELOPERS.md, Decisions: reading a site-year is 365 rows, not 35,040+.
+ */
+export const intervalBlock = sqliteTable(
+  'interval_block',
+  {
+    meterId: text('meter_id').notNull().references(() => meter.id, { onDelete: 'cascade' }),
+    day: integer('day').notNull(),
+    organizationId: text('organization_id').notNull().references(() => organization.id, { onDelete: 'cascade' }),
+    importId: text('import_id').notNull(),
+    intervalMinutes: integer('interval_minutes').notNull(),
+    count: integer('count').notNull(),
+    startMs: blob('start_ms', { mode: 'buffer' }).notNull(),
+    kwh: blob('kwh', { mode: 'buffer' }).notNull(),
+    kvarhLag: blob('kvarh_lag', { mode: 'buffer' }).notNull(),
+    kvarhLead: blob('kvarh_lead', { mode: 'buffer' }).notNull(),
+    flags: blob('flags', { mode: 'buffer' }).notNull(),
+  },
+  (t) => [primaryKey({ columns: [t.meterId, t.day] }), index('interval_block_org_idx').on(t.organizationId)],
+);
+
+/** A version of a site's tariff: the engine's tariff object, in force from a date. */
+export const tariff = sqliteTable(
+  'tariff',
+  {
+    id: text('id').primaryKey(),
+    organizationId: text('organization_id').notNull().references(() => organization.id, { onDelete: 'cascade' }),
+    siteId: text('site_id').notNull().references(() => site.id, { onDelete: 'cascade' }),
+    name: text('name').notNull(),
+    /** First local date (YYYY-MM-DD) the version applies to. */
+    effectiveFrom: text('effective_from').notNull(),
+    definition: text('definition', { mode: 'json' }).$type<Record<string, unknown>>().notNull(),
+    createdBy: text('created_by'),
+    createdAt: createdAt(),
+    updatedAt: updatedAt(),
+  },
+  (t) => [uniqueIndex('tariff_site_from_idx').on(t.siteId, t.effectiveFrom), index('tariff_org_idx').on(t.organizationId)],
+);
+
+/** A utility bill's billed determinants for one billing period (dates are local, end inclusive). */
+export const bill = sqliteTable(
+  'bill',
+  {
+    id: text('id').primaryKey(),
+    organizationId: text('organization_id').notNull().references(() => organization.id, { onDelete: 'cascade' }),
+    siteId: text('site_id').notNull().references(() => site.id, { onDelete: 'cascade' }),
+    periodStart: text('period_start').notNull(),
+    periodEnd: text('period_end').notNull(),
+    kwh: real('kwh').notNull(),
+    billedDemand: real('billed_demand'),
+    demandUnit: text('demand_unit', { enum: ['kW', 'kVA'] }).notNull().default('kW'),
+    kvarh: real('kvarh'),
+    pf: real('pf'),
+    pfCharge: real('pf_charge'),
+    total: real('total'),
+    currency: text('currency').notNull(),
+    documentFileId: text('document_file_id').references(() => storedFile.id, { onDelete: 'set null' }),
+    source: text('source', { enum: ['form', 'csv'] }).notNull(),
+    createdBy: text('created_by'),
+    createdAt: createdAt(),
+  },
+  (t) => [uniqueIndex('bill_site_period_idx').on(t.siteId, t.periodStart, t.periodEnd), index('bill_org_idx').on(t.organizationId)],
+);

@@ -26,6 +26,8 @@ const EnvSchema = z.object({
   MAIL_FROM: z.string().min(3).default('Varledger <no-reply@varledger.local>'),
   MAIL_SINK: z.enum(['on', 'off']).default('on').describe('Start the local SMTP sink with `npm start` (turn off when SMTP_HOST is a real server)'),
   MAIL_SINK_WEB_PORT: port(1080),
+  UPLOAD_MAX_BYTES: z.coerce.number().int().min(1024).default(100 * 1024 * 1024).describe('Largest meter-data upload, bytes'),
+  BILL_DOCUMENT_MAX_BYTES: z.coerce.number().int().min(1024).default(10 * 1024 * 1024).describe('Largest bill document (PDF, PNG, JPEG), bytes'),
   SECURE_COOKIES: z.enum(['auto', 'true', 'false']).default('auto'),
 });
 

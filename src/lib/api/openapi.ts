@@ -6,6 +6,7 @@ import { OpenAPIRegistry, OpenApiGeneratorV31 } from '@asteasolutions/zod-to-ope
 import { z } from 'zod';
 import { ErrorBodySchema } from './errors';
 import { SiteCreateSchema, SiteSchema, SiteUpdateSchema } from '../schemas/site';
+import { TariffDtoSchema, TariffVersionSchema } from '../schemas/tariff';
 import { InvitationSchema, InviteSchema, MemberRoleSchema, MemberSchema, MeSchema, WorkspaceCreateSchema, WorkspaceSchema, WorkspaceSwitchSchema } from '../schemas/workspace';
 
 type Method = 'get' | 'post' | 'put' | 'patch' | 'delete';
@@ -22,6 +23,7 @@ export type RouteDoc = {
 };
 
 const siteParams = z.object({ siteId: z.string().meta({ description: 'Site id', example: 'site_3fQk...' }) });
+const tariffParams = siteParams.extend({ tariffId: z.string().meta({ description: 'Tariff version id' }) });
 const memberParams = z.object({ memberId: z.string() });
 const invitationParams = z.object({ invitationId: z.string() });
 
@@ -45,6 +47,11 @@ export const ROUTES: RouteDoc[] = [
   { method: 'get', path: '/api/sites/{siteId}', summary: 'Read a site', tag: 'Sites', permission: 'site:view', params: siteParams, ok: { status: 200, schema: z.object({ site: SiteSchema }), description: 'Site' }, errors: [401, 404] },
   { method: 'patch', path: '/api/sites/{siteId}', summary: 'Rename a site or change its details', tag: 'Sites', permission: 'site:edit', params: siteParams, body: SiteUpdateSchema, ok: { status: 200, schema: z.object({ site: SiteSchema }), description: 'Updated' }, errors: [400, 401, 403, 404, 409] },
   { method: 'delete', path: '/api/sites/{siteId}', summary: 'Delete a site and everything recorded for it', tag: 'Sites', permission: 'site:delete', params: siteParams, ok: { status: 204, description: 'Deleted' }, errors: [401, 403, 404] },
+  { method: 'get', path: '/api/sites/{siteId}/tariffs', summary: "The site's tariff versions, oldest first", tag: 'Tariffs', permission: 'site:view', params: siteParams, ok: { status: 200, schema: z.object({ tariffs: z.array(TariffDtoSchema) }), description: 'Tariff versions' }, errors: [401, 404] },
+  { method: 'post', path: '/api/sites/{siteId}/tariffs', summary: 'Add a tariff version (power-factor rules in force from a date)', tag: 'Tariffs', permission: 'tariff:edit', params: siteParams, body: TariffVersionSchema, ok: { status: 201, schema: z.object({ tariff: TariffDtoSchema }), description: 'Created' }, errors: [400, 401, 403, 404, 409] },
+  { method: 'get', path: '/api/sites/{siteId}/tariffs/{tariffId}', summary: 'Read a tariff version', tag: 'Tariffs', permission: 'site:view', params: tariffParams, ok: { status: 200, schema: z.object({ tariff: TariffDtoSchema }), description: 'Tariff version' }, errors: [401, 404] },
+  { method: 'put', path: '/api/sites/{siteId}/tariffs/{tariffId}', summary: 'Replace a tariff version', tag: 'Tariffs', permission: 'tariff:edit', params: tariffParams, body: TariffVersionSchema, ok: { status: 200, schema: z.object({ tariff: TariffDtoSchema }), description: 'Updated' }, errors: [400, 401, 403, 404, 409] },
+  { method: 'delete', path: '/api/sites/{siteId}/tariffs/{tariffId}', summary: 'Delete a tariff version', tag: 'Tariffs', permission: 'tariff:edit', params: tariffParams, ok: { status: 204, description: 'Deleted' }, errors: [401, 403, 404] },
 ];
 
 const ERROR_TEXT: Record<number, string> = {

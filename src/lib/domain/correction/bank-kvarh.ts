@@ -31,28 +31,34 @@ export function switchedBankKvarhInto(series: IntervalSeries, bank: SwitchedBank
   const cum = new Float64Array(n + 1);
   for (let k = 0; k < n; k++) cum[k + 1] = cum[k] + steps[k];
   const { kwh, kvarhLag, kvarhLead } = series;
+  const invStep = 1 / step;
+  const stepKvarh = step * toEnergy;
   let previous = 0;
   let switchings = 0;
   for (let i = 0; i < series.length; i++) {
     const e = kwh[i];
     let k = 0;
     if (e > ZERO_KWH) {
-      const p = e * toPower;
-      const q = (kvarhLag[i] - kvarhLead[i]) * toPower;
-      const need = q - p * tanTarget;
-      const room = q + p * tanLimit;
+      // Work in energy per interval: the ratios are the same as in power.
+      const q = kvarhLag[i] - kvarhLead[i];
+      const need = (q - e * tanTarget) * toPower;
+      const room = (q + e * tanLimit) * toPower;
       if (need > EPS && room > EPS) {
         if (equal) {
-          k = Math.min(n, Math.ceil(need / step - EPS), Math.floor(room / step + EPS));
+          k = Math.ceil(need * invStep - EPS);
+          const kMax = Math.floor(room * invStep + EPS);
+          if (k > kMax) k = kMax;
+          if (k > n) k = n;
         } else {
-          while (k < n && q - cum[k] > p * tanTarget + EPS && cum[k + 1] <= room + EPS) k++;
+          const qk = q * toPower;
+          const target = e * toPower * tanTarget + EPS;
+          while (k < n && qk - cum[k] > target && cum[k + 1] <= room + EPS) k++;
         }
-        if (k < 0) k = 0;
       }
     }
-    out[i] = cum[k] * toEnergy;
+    out[i] = equal ? k * stepKvarh : cum[k] * toEnergy;
     if (k !== previous) {
-      switchings += Math.abs(k - previous);
+      switchings += k > previous ? k - previous : previous - k;
       previous = k;
     }
   }

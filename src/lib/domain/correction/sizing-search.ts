@@ -80,7 +80,7 @@ export function sizingSearch(tariff: Tariff, series: IntervalSeries, periods: re
   const om = (opts.costs.omPctOfCapex ?? 1) / 100;
 
   const addRow = (kind: 'fixed' | 'switched', kvar: number, steps: number | null, correction: ReactiveCorrection) => {
-    const evaluation = evaluatePrepared(prep, correction, opts.evaluate);
+    const evaluation = evaluatePrepared(prep, correction, { ...opts.evaluate, explain: false });
     const lead = leadingTotals(prep);
     const costs = opts.costs[kind];
     const capex = capexOf({ kvar, costPerKvar: costs.perKvar, fixedCost: costs.fixedCost, detuningPremiumPerKvar: opts.costs.detuningPremiumPerKvar }).total;

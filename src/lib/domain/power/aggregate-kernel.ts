@@ -1,5 +1,5 @@
 import { SeriesFlag } from '../series/interval-series';
-import { Field, FIELD_COUNT, ZERO_KWH } from './aggregate-fields';
+import { FIELD_COUNT, ZERO_KWH } from './aggregate-fields';
 import type { AggregationPlan } from './aggregation-plan';
 
 /**
@@ -12,6 +12,32 @@ export type ReactiveCorrection =
   | { kind: 'per-interval'; kvarh: Float64Array };
 
 const NONE: ReactiveCorrection = { kind: 'none' };
+const MISSING = SeriesFlag.reactiveMissing;
+
+// Field offsets, repeated here as literals because this is the hottest loop of the
+// engine: V8 folds literals, while reading them off an imported object costs time.
+// They must match aggregate-fields.ts (a unit test checks it).
+const KWH = 0;
+const LAG = 1;
+const LEAD = 2;
+const LEAD_ZERO = 3;
+const IMPORT_N = 4;
+const ZERO_N = 5;
+const EXPORT_N = 6;
+const KWH_EXPORT = 7;
+const LEADING_N = 8;
+const MISSING_N = 9;
+const WORST_LEAD_PF = 10;
+const MAX_KVAR = 11;
+const MAX_KVAR_BLOCK = 12;
+const MAX_KVA_SQ = 13;
+const MAX_KVA_BLOCK = 14;
+const COINCIDENT_KVAR = 15;
+const LAG_EXPORT = 16;
+const LEAD_EXPORT = 17;
+
+/** Kernel field offsets, exported so a test can check them against `Field`. */
+export const KERNEL_FIELDS = { kwh: KWH, kvarhLag: LAG, kvarhLead: LEAD, kvarhLeadZeroKw: LEAD_ZERO, importIntervals: IMPORT_N, zeroKwIntervals: ZERO_N, exportIntervals: EXPORT_N, kwhExport: KWH_EXPORT, leadingIntervals: LEADING_N, reactiveMissing: MISSING_N, worstLeadPf: WORST_LEAD_PF, maxKvar: MAX_KVAR, maxKvarBlock: MAX_KVAR_BLOCK, maxKvaSq: MAX_KVA_SQ, maxKvaBlock: MAX_KVA_BLOCK, coincidentKvar: COINCIDENT_KVAR, kvarhLagExport: LAG_EXPORT, kvarhLeadExport: LEAD_EXPORT } as const;
 
 /**
  * One pass over the intervals and one over the demand readings, filling `plan.acc`
@@ -22,103 +48,157 @@ const NONE: ReactiveCorrection = { kind: 'none' };
  * to its leading kvarh, so a zero correction reproduces the meter's registers.
  */
 export function aggregate(plan: AggregationPlan, correction: ReactiveCorrection = NONE): Float64Array {
-  const { series, acc, prefix, intervalPeriod, bits, windowCount: W } = plan;
+  const { series, prefix, intervalSlot, patternAcc } = plan;
   const { kwh, kvarhLag, kvarhLead, flags } = series;
   const n = series.length;
-  resetAccumulator(acc);
+  resetAccumulator(patternAcc);
   const perInterval = correction.kind === 'per-interval' ? correction.kvarh : null;
   const constant = correction.kind === 'constant' ? correction.kvarh : 0;
   let running = 0;
   prefix[0] = 0;
+  // Sums run in locals while the slot (period, window pattern) stays the same, which
+  // holds for hours at a time, and are added to the slot's record when it changes.
+  let current = -1;
+  let sKwh = 0, sLag = 0, sLead = 0, sLeadZero = 0, nImport = 0, nZero = 0, nExport = 0, sKwhExport = 0, nLeading = 0, nMissing = 0, worst = Infinity, sLagExport = 0, sLeadExport = 0;
   for (let i = 0; i < n; i++) {
-    let lag = kvarhLag[i];
-    let lead = kvarhLead[i];
+    const lag0 = kvarhLag[i];
     const c = perInterval !== null ? perInterval[i] : constant;
-    if (c !== 0) {
-      if (c <= lag) lag -= c;
-      else {
-        lead += c - lag;
-        lag = 0;
-      }
-    }
+    // Branch-free split: the lag/lead crossing is data-dependent and mispredicts.
+    const lag = Math.max(lag0 - c, 0);
+    const lead = kvarhLead[i] + Math.max(c - lag0, 0);
     const net = lag - lead;
     running += net;
     prefix[i + 1] = running;
-    const p = intervalPeriod[i];
-    if (p < 0) continue;
-    const e = kwh[i];
-    const b = bits !== null ? bits[i] : 1;
-    const missing = (flags[i] & SeriesFlag.reactiveMissing) !== 0 ? 1 : 0;
-    for (let w = 0; w < W; w++) {
-      if ((b & (1 << w)) === 0) continue;
-      const o = (p * W + w) * FIELD_COUNT;
-      acc[o + Field.reactiveMissing] += missing;
-      if (e > ZERO_KWH) {
-        acc[o + Field.kwh] += e;
-        acc[o + Field.kvarhLag] += lag;
-        acc[o + Field.kvarhLead] += lead;
-        acc[o + Field.importIntervals] += 1;
-        if (net < 0) {
-          acc[o + Field.leadingIntervals] += 1;
-          const pf = e / Math.sqrt(e * e + net * net);
-          if (pf < acc[o + Field.worstLeadPf]) acc[o + Field.worstLeadPf] = pf;
-        }
-      } else if (e < -ZERO_KWH) {
-        acc[o + Field.exportIntervals] += 1;
-        acc[o + Field.kwhExport] -= e;
-        acc[o + Field.kvarhLagExport] += lag;
-        acc[o + Field.kvarhLeadExport] += lead;
-      } else {
-        // The registers still advance at zero kW, so their kvarh counts in the totals.
-        acc[o + Field.zeroKwIntervals] += 1;
-        acc[o + Field.kvarhLag] += lag;
-        acc[o + Field.kvarhLead] += lead;
-        acc[o + Field.kvarhLeadZeroKw] += lead;
+    const slot = intervalSlot[i];
+    if (slot !== current) {
+      if (current >= 0) {
+        const o = current * FIELD_COUNT;
+        patternAcc[o + KWH] += sKwh; patternAcc[o + LAG] += sLag; patternAcc[o + LEAD] += sLead; patternAcc[o + LEAD_ZERO] += sLeadZero;
+        patternAcc[o + IMPORT_N] += nImport; patternAcc[o + ZERO_N] += nZero; patternAcc[o + EXPORT_N] += nExport; patternAcc[o + KWH_EXPORT] += sKwhExport;
+        patternAcc[o + LEADING_N] += nLeading; patternAcc[o + MISSING_N] += nMissing;
+        if (worst < patternAcc[o + WORST_LEAD_PF]) patternAcc[o + WORST_LEAD_PF] = worst;
+        patternAcc[o + LAG_EXPORT] += sLagExport; patternAcc[o + LEAD_EXPORT] += sLeadExport;
       }
+      current = slot;
+      sKwh = 0; sLag = 0; sLead = 0; sLeadZero = 0; nImport = 0; nZero = 0; nExport = 0; sKwhExport = 0; nLeading = 0; nMissing = 0; worst = Infinity; sLagExport = 0; sLeadExport = 0;
+    }
+    if (slot < 0) continue;
+    const e = kwh[i];
+    if ((flags[i] & MISSING) !== 0) nMissing++;
+    if (e > ZERO_KWH) {
+      sKwh += e; sLag += lag; sLead += lead; nImport++;
+      if (net < 0) {
+        nLeading++;
+        const pf = e / Math.sqrt(e * e + net * net);
+        if (pf < worst) worst = pf;
+      }
+    } else if (e < -ZERO_KWH) {
+      nExport++; sKwhExport -= e; sLagExport += lag; sLeadExport += lead;
+    } else {
+      // The registers still advance at zero kW, so their kvarh counts in the totals.
+      nZero++; sLag += lag; sLead += lead; sLeadZero += lead;
     }
   }
+  if (current >= 0) {
+    const o = current * FIELD_COUNT;
+    patternAcc[o + KWH] += sKwh; patternAcc[o + LAG] += sLag; patternAcc[o + LEAD] += sLead; patternAcc[o + LEAD_ZERO] += sLeadZero;
+    patternAcc[o + IMPORT_N] += nImport; patternAcc[o + ZERO_N] += nZero; patternAcc[o + EXPORT_N] += nExport; patternAcc[o + KWH_EXPORT] += sKwhExport;
+    patternAcc[o + LEADING_N] += nLeading; patternAcc[o + MISSING_N] += nMissing;
+    if (worst < patternAcc[o + WORST_LEAD_PF]) patternAcc[o + WORST_LEAD_PF] = worst;
+    patternAcc[o + LAG_EXPORT] += sLagExport; patternAcc[o + LEAD_EXPORT] += sLeadExport;
+  }
   scanDemandReadings(plan);
-  return acc;
+  combinePatterns(plan);
+  return plan.acc;
 }
 
+/** Highest kvar and kVA reading per (period, pattern), run-length in locals like the interval pass. */
 function scanDemandReadings(plan: AggregationPlan): void {
-  const { acc, prefix, blocks, blockPeriod, blockBits, peakBlock, windowCount: W } = plan;
+  const { patternAcc: acc, prefix, blocks, blockSlot } = plan;
   const toKw = 60 / blocks.windowMinutes;
   const { first, end, kw } = blocks;
+  let current = -1;
+  let maxQ = -Infinity, maxQb = -1, maxSq = -1, maxSqb = -1;
   for (let b = 0; b < blocks.count; b++) {
-    const p = blockPeriod[b];
-    if (p < 0) continue;
+    const slot = blockSlot[b];
+    if (slot !== current) {
+      if (current >= 0) mergeMaxima(acc, current * FIELD_COUNT, maxQ, maxQb, maxSq, maxSqb);
+      current = slot;
+      maxQ = -Infinity; maxQb = -1; maxSq = -1; maxSqb = -1;
+    }
+    if (slot < 0) continue;
     const q = (prefix[end[b]] - prefix[first[b]]) * toKw;
     const k = kw[b];
     const sq = k * k + q * q;
-    const bb = blockBits !== null ? blockBits[b] : 1;
-    for (let w = 0; w < W; w++) {
-      if ((bb & (1 << w)) === 0) continue;
-      const o = (p * W + w) * FIELD_COUNT;
-      if (q > acc[o + Field.maxKvar]) {
-        acc[o + Field.maxKvar] = q;
-        acc[o + Field.maxKvarBlock] = b;
-      }
-      if (sq > acc[o + Field.maxKvaSq]) {
-        acc[o + Field.maxKvaSq] = sq;
-        acc[o + Field.maxKvaBlock] = b;
+    if (q > maxQ) {
+      maxQ = q;
+      maxQb = b;
+    }
+    if (sq > maxSq) {
+      maxSq = sq;
+      maxSqb = b;
+    }
+  }
+  if (current >= 0) mergeMaxima(acc, current * FIELD_COUNT, maxQ, maxQb, maxSq, maxSqb);
+}
+
+function mergeMaxima(acc: Float64Array, o: number, maxQ: number, maxQb: number, maxSq: number, maxSqb: number): void {
+  // Strictly greater keeps the earlier reading on ties, as readings arrive in time order.
+  if (maxQ > acc[o + MAX_KVAR]) {
+    acc[o + MAX_KVAR] = maxQ;
+    acc[o + MAX_KVAR_BLOCK] = maxQb;
+  }
+  if (maxSq > acc[o + MAX_KVA_SQ]) {
+    acc[o + MAX_KVA_SQ] = maxSq;
+    acc[o + MAX_KVA_BLOCK] = maxSqb;
+  }
+}
+
+const SUMMED = [KWH, LAG, LEAD, LEAD_ZERO, IMPORT_N, ZERO_N, EXPORT_N, KWH_EXPORT, LEADING_N, MISSING_N, LAG_EXPORT, LEAD_EXPORT];
+
+/** Folds (period, pattern) records into (period, window) records and adds the coincident kvar. */
+function combinePatterns(plan: AggregationPlan): void {
+  const { acc, patternAcc, patternBits, peakBlock, prefix, blocks, windowCount: W } = plan;
+  const P = patternBits.length;
+  resetAccumulator(acc);
+  const periods = plan.periods.length;
+  for (let p = 0; p < periods; p++) {
+    for (let k = 0; k < P; k++) {
+      const src = (p * P + k) * FIELD_COUNT;
+      const bits = patternBits[k];
+      for (let w = 0; w < W; w++) {
+        if ((bits & (1 << w)) === 0) continue;
+        const dst = (p * W + w) * FIELD_COUNT;
+        for (const f of SUMMED) acc[dst + f] += patternAcc[src + f];
+        if (patternAcc[src + WORST_LEAD_PF] < acc[dst + WORST_LEAD_PF]) acc[dst + WORST_LEAD_PF] = patternAcc[src + WORST_LEAD_PF];
+        const qb = patternAcc[src + MAX_KVAR_BLOCK];
+        if (qb >= 0 && (patternAcc[src + MAX_KVAR] > acc[dst + MAX_KVAR] || (patternAcc[src + MAX_KVAR] === acc[dst + MAX_KVAR] && qb < acc[dst + MAX_KVAR_BLOCK]))) {
+          acc[dst + MAX_KVAR] = patternAcc[src + MAX_KVAR];
+          acc[dst + MAX_KVAR_BLOCK] = qb;
+        }
+        const sb = patternAcc[src + MAX_KVA_BLOCK];
+        if (sb >= 0 && (patternAcc[src + MAX_KVA_SQ] > acc[dst + MAX_KVA_SQ] || (patternAcc[src + MAX_KVA_SQ] === acc[dst + MAX_KVA_SQ] && sb < acc[dst + MAX_KVA_BLOCK]))) {
+          acc[dst + MAX_KVA_SQ] = patternAcc[src + MAX_KVA_SQ];
+          acc[dst + MAX_KVA_BLOCK] = sb;
+        }
       }
     }
   }
+  const toKw = 60 / blocks.windowMinutes;
   for (let slot = 0; slot < peakBlock.length; slot++) {
     const b = peakBlock[slot];
     if (b < 0) continue;
-    acc[slot * FIELD_COUNT + Field.coincidentKvar] = (prefix[end[b]] - prefix[first[b]]) * toKw;
+    acc[slot * FIELD_COUNT + COINCIDENT_KVAR] = (prefix[blocks.end[b]] - prefix[blocks.first[b]]) * toKw;
   }
 }
 
 function resetAccumulator(acc: Float64Array): void {
   acc.fill(0);
   for (let o = 0; o < acc.length; o += FIELD_COUNT) {
-    acc[o + Field.worstLeadPf] = Number.POSITIVE_INFINITY;
-    acc[o + Field.maxKvar] = Number.NEGATIVE_INFINITY;
-    acc[o + Field.maxKvarBlock] = -1;
-    acc[o + Field.maxKvaSq] = -1;
-    acc[o + Field.maxKvaBlock] = -1;
+    acc[o + WORST_LEAD_PF] = Number.POSITIVE_INFINITY;
+    acc[o + MAX_KVAR] = Number.NEGATIVE_INFINITY;
+    acc[o + MAX_KVAR_BLOCK] = -1;
+    acc[o + MAX_KVA_SQ] = -1;
+    acc[o + MAX_KVA_BLOCK] = -1;
   }
 }

@@ -29,15 +29,20 @@ export interface AggregationPlan {
   /** Window count including window 0 (all intervals). */
   readonly windowCount: number;
   readonly windows: readonly TouWindow[];
-  /** Period index of each interval, -1 outside every period. */
-  readonly intervalPeriod: Int32Array;
-  /** Window membership bits per interval; null when only window 0 exists. */
-  readonly bits: Uint32Array | null;
+  /**
+   * Window-membership patterns: intervals with the same bits feed the same windows,
+   * so the kernel sums per (period, pattern) and combines patterns into windows after.
+   */
+  readonly patternBits: Uint32Array;
+  /** (period x patterns + pattern) of each interval, -1 outside every period. */
+  readonly intervalSlot: Int32Array;
   readonly blocks: DemandBlocks;
-  readonly blockPeriod: Int32Array;
-  readonly blockBits: Uint32Array | null;
+  /** (period x patterns + pattern) of each demand reading's anchor interval, or -1. */
+  readonly blockSlot: Int32Array;
   /** Peak-kW demand reading per (period, window), -1 when the window is empty. */
   readonly peakBlock: Int32Array;
+  /** Scratch: per (period, pattern) sums, FIELD_COUNT numbers each. */
+  readonly patternAcc: Float64Array;
   /** Scratch: prefix sums of corrected net kvarh, length n + 1. */
   readonly prefix: Float64Array;
   /** Scratch accumulator, FIELD_COUNT numbers per (period, window). */
@@ -55,27 +60,52 @@ export function createAggregationPlan(series: IntervalSeries, periods: readonly 
   const bits = windows.length ? buildWindowBits(cal, windows, opts.holidays ?? []) : null;
 
   const n = series.length;
-  const intervalPeriod = new Int32Array(n).fill(-1);
   const ranges = periodRanges(series, periods);
-  for (let p = 0; p < periods.length; p++) intervalPeriod.fill(p, ranges.first[p], ranges.end[p]);
+  // Distinct membership patterns, in order of first appearance (window 0 always in).
+  const patternOf = new Map<number, number>();
+  const patternList: number[] = [];
+  const patternIndex = (b: number) => {
+    let k = patternOf.get(b);
+    if (k === undefined) {
+      k = patternList.push(b) - 1;
+      patternOf.set(b, k);
+    }
+    return k;
+  };
+  const localPattern = new Int32Array(n);
+  let lastBits = -1;
+  let lastPattern = 0;
+  for (let i = 0; i < n && bits; i++) {
+    // Membership comes in long runs; look the pattern up only when it changes.
+    if (bits[i] !== lastBits) {
+      lastBits = bits[i];
+      lastPattern = patternIndex(lastBits);
+    }
+    localPattern[i] = lastPattern;
+  }
+  if (patternList.length === 0) patternList.push(1);
+  const P = patternList.length;
+  const intervalSlot = new Int32Array(n).fill(-1);
+  for (let p = 0; p < periods.length; p++) {
+    for (let i = ranges.first[p]; i < ranges.end[p]; i++) intervalSlot[i] = p * P + localPattern[i];
+  }
 
   const blocks = buildDemandBlocks(series, cal, opts.demandWindowMinutes ?? series.intervalMinutes, opts.demandMethod ?? 'block');
-  const blockPeriod = new Int32Array(blocks.count);
-  const blockBits = bits ? new Uint32Array(blocks.count) : null;
+  const blockSlot = new Int32Array(blocks.count);
   const peakBlock = new Int32Array(periods.length * windowCount).fill(-1);
   for (let b = 0; b < blocks.count; b++) {
     const a = blocks.anchor[b];
-    const p = intervalPeriod[a];
-    blockPeriod[b] = p;
+    const slot = intervalSlot[a];
+    blockSlot[b] = slot;
+    if (slot < 0) continue;
+    const p = Math.floor(slot / P);
     const bb = bits ? bits[a] : 1;
-    if (blockBits) blockBits[b] = bb;
-    if (p < 0) continue;
     for (let w = 0; w < windowCount; w++) {
       if ((bb & (1 << w)) === 0) continue;
-      const slot = p * windowCount + w;
-      const current = peakBlock[slot];
+      const s = p * windowCount + w;
+      const current = peakBlock[s];
       // Ties keep the earliest reading, which is what a meter's maximum register shows.
-      if (current < 0 || blocks.kw[b] > blocks.kw[current]) peakBlock[slot] = b;
+      if (current < 0 || blocks.kw[b] > blocks.kw[current]) peakBlock[s] = b;
     }
   }
   return {
@@ -83,12 +113,12 @@ export function createAggregationPlan(series: IntervalSeries, periods: readonly 
     periods,
     windowCount,
     windows,
-    intervalPeriod,
-    bits,
+    patternBits: Uint32Array.from(patternList),
+    intervalSlot,
     blocks,
-    blockPeriod,
-    blockBits,
+    blockSlot,
     peakBlock,
+    patternAcc: new Float64Array(periods.length * P * FIELD_COUNT),
     prefix: new Float64Array(n + 1),
     acc: new Float64Array(periods.length * windowCount * FIELD_COUNT),
   };

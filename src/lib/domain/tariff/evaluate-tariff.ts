@@ -14,10 +14,14 @@ export interface EvaluateOptions {
   history?: readonly PriorPeriod[];
   /** Bill amounts per period id, for rules whose base is an entered amount. */
   amounts?: Readonly<Record<string, EnteredAmounts>>;
+  /** Format explanations (default true); the sizing search turns this off. */
+  explain?: boolean;
 }
 
 /** One rule's result in one period. */
-export interface RuleResult extends RuleOutcome {
+export interface RuleResult extends Omit<RuleOutcome, 'explain'> {
+  /** The formula with the numbers filled in ('' when explanations were turned off). */
+  explanation: string;
   ruleId: string;
   type: TariffRule['type'];
   /** The rule's own name, else its type label. */
@@ -81,6 +85,7 @@ export function prepareTariff(tariff: Tariff, series: IntervalSeries, periods: r
  */
 export function evaluatePrepared(prep: PreparedTariff, correction?: ReactiveCorrection, opts: EvaluateOptions = {}): TariffEvaluation {
   const { tariff, plan, ruleWindow } = prep;
+  const explain = opts.explain ?? true;
   aggregate(plan, correction);
   const memories: RuleMemory[][] = tariff.rules.map((rule) => historyMemory(rule, opts.history ?? []));
   const byRule = tariff.rules.map((rule) => ({ ruleId: rule.id, ruleLabel: rule.name ?? ruleTypeLabel(rule.type), total: 0 }));
@@ -92,7 +97,11 @@ export function evaluatePrepared(prep: PreparedTariff, correction?: ReactiveCorr
       if (outcome.memory) memories[r].push(outcome.memory);
       byRule[r].total += outcome.amount;
       const result: RuleResult = {
-        ...outcome,
+        amount: outcome.amount,
+        status: outcome.status,
+        quantities: outcome.quantities,
+        memory: outcome.memory,
+        explanation: explain ? outcome.explain() : '',
         ruleId: rule.id,
         type: rule.type,
         ruleLabel: byRule[r].ruleLabel,

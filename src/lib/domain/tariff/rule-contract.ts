@@ -30,8 +30,11 @@ export interface RuleOutcome {
   status: RuleStatus;
   /** The quantities used, with units in the keys (`peakKw`, `billableKvar`). */
   quantities: Record<string, number | null>;
-  /** The formula with the numbers filled in. */
-  explanation: string;
+  /**
+   * The formula with the numbers filled in. A function so that the sizing search,
+   * which evaluates the tariff hundreds of times, only formats text when asked.
+   */
+  explain: () => string;
   /** Stored for later periods' ratchets. */
   memory?: RuleMemory;
 }

@@ -41,10 +41,17 @@ export function buildWindowBits(cal: LocalCalendar, windows: readonly TouWindow[
     for (let k = 0; k < compiled.length; k++) {
       const v = dayVerdict[k];
       if (v === 0) continue;
-      const ranges = compiled[k].ranges;
-      if (v === 2 || ranges === null || ranges.some(([f, t]) => inTimeRange(minute, f, t))) b |= 1 << (k + 1);
+      if (v === 2 || inAnyRange(compiled[k].ranges, minute)) b |= 1 << (k + 1);
     }
     bits[i] = b >>> 0;
   }
   return bits;
+}
+
+function inAnyRange(ranges: readonly (readonly [number, number])[] | null, minute: number): boolean {
+  if (ranges === null) return true;
+  for (let r = 0; r < ranges.length; r++) {
+    if (inTimeRange(minute, ranges[r][0], ranges[r][1])) return true;
+  }
+  return false;
 }

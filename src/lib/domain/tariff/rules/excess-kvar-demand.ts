@@ -31,28 +31,30 @@ export function evaluateExcessKvarDemand(rule: ExcessKvarDemandRule, input: Rule
   const p = agg.peakKw;
   const q = rule.kvarSource === 'coincident' ? agg.peakKvar : agg.maxKvar;
   if (p <= 0) {
-    return { amount: 0, status: 'not-applicable', quantities: { peakKw: 0 }, explanation: 'No import demand in this period.', memory: { billableKvar: 0 } };
+    return { amount: 0, status: 'not-applicable', quantities: { peakKw: 0 }, explain: () => 'No import demand in this period.', memory: { billableKvar: 0 } };
   }
   const allowed = k * p;
   const measured = Math.max(0, q - allowed);
   let billable = measured;
-  let head: string;
+  let head: () => string;
   if (rule.kvarSource === 'coincident') {
     const pf = powerFactor(p, q) ?? 1;
-    head = `Peak ${num(p)} kW with ${num(q)} kvar in the same reading (${num(apparentKva(p, q))} kVA, PF ${pfText(pf, q > 0 ? 'lag' : q < 0 ? 'lead' : 'unity')})`;
+    head = () => `Peak ${num(p)} kW with ${num(q)} kvar in the same reading (${num(apparentKva(p, q))} kVA, PF ${pfText(pf, q > 0 ? 'lag' : q < 0 ? 'lead' : 'unity')})`;
   } else {
-    head = `Peak ${num(p)} kW and highest ${num(q)} kvar of the period (not necessarily coincident)`;
+    head = () => `Peak ${num(p)} kW and highest ${num(q)} kvar of the period (not necessarily coincident)`;
   }
-  const parts = [head, `allowance ${num(p)} kW × ${allowanceText(rule.allowance)} = ${num(allowed)} kvar`, `excess ${num(measured)} kvar`];
+  const parts: (() => string)[] = [head, () => `allowance ${num(p)} kW × ${allowanceText(rule.allowance)} = ${num(allowed)} kvar`, () => `excess ${num(measured)} kvar`];
   const quantities: Record<string, number | null> = { peakKw: p, kvar: q, kFactor: k, allowedKvar: allowed, excessKvar: measured };
   if (rule.ratchet) {
     const f = ratchetFloor(input.memory, 'billableKvar', rule.ratchet.lookbackPeriods);
-    billable = Math.max(measured, rule.ratchet.fraction * f.max);
-    parts.push(`ratchet ${num(rule.ratchet.fraction * 100, 0)} % of the highest earlier billable kvar (${f.used} of ${rule.ratchet.lookbackPeriods} periods available) = ${num(rule.ratchet.fraction * f.max)} kvar`);
+    const r = rule.ratchet;
+    billable = Math.max(measured, r.fraction * f.max);
+    parts.push(() => `ratchet ${num(r.fraction * 100, 0)} % of the highest earlier billable kvar (${f.used} of ${r.lookbackPeriods} periods available) = ${num(r.fraction * f.max)} kvar`);
     quantities.ratchetPeriodsUsed = f.used;
   }
   const amount = billable * rule.ratePerKvar;
+  const billed = billable;
   quantities.billableKvar = billable;
-  parts.push(`billable ${num(billable)} kvar × ${rate(rule.ratePerKvar, currency, 'kvar')} = ${money(amount, currency)}`);
-  return { amount, status: amount > 0 ? 'charge' : 'none', quantities, explanation: `${parts.join('; ')}.`, memory: { billableKvar: billable } };
+  parts.push(() => `billable ${num(billed)} kvar × ${rate(rule.ratePerKvar, currency, 'kvar')} = ${money(amount, currency)}`);
+  return { amount, status: amount > 0 ? 'charge' : 'none', quantities, explain: () => `${parts.map((f) => f()).join('; ')}.`, memory: { billableKvar: billable } };
 }

@@ -63,6 +63,6 @@ export function evaluateExcessKvarh(rule: ExcessKvarhRule, input: RuleInput): Ru
     amount,
     status: amount > 0 ? 'charge' : 'none',
     quantities,
-    explanation: `${num(kvarh, 0)} kvarh (${rule.kvarhBasis}) against ${num(agg.kwh, 0)} kWh, ${pfPart}: allowance ${num(agg.kwh, 0)} kWh × ${allowanceText(rule.allowance)} = ${num(allowed, 0)} kvarh; billable ${num(billable, 0)} kvarh × ${priceText} = ${money(amount, currency)}.`,
+    explain: () => `${num(kvarh, 0)} kvarh (${rule.kvarhBasis}) against ${num(agg.kwh, 0)} kWh, ${pfPart}: allowance ${num(agg.kwh, 0)} kWh × ${allowanceText(rule.allowance)} = ${num(allowed, 0)} kvarh; billable ${num(billable, 0)} kvarh × ${priceText} = ${money(amount, currency)}.`,
   };
 }

@@ -4,6 +4,7 @@ import { kvarhBasisSchema, pfTarget, ratchetSchema, ruleBaseShape } from '../com
 import { money, num, rate } from '../format';
 import { kvarhOnBasis } from '../pf-basis';
 import { ratchetFloor, type RuleInput, type RuleOutcome } from '../rule-contract';
+import type { WindowAggregate } from '../../power/window-aggregate';
 
 export const KVA_BILLING_DEMAND = 'kva-billing-demand';
 
@@ -38,28 +39,12 @@ export function evaluateKvaBillingDemand(rule: KvaBillingDemandRule, input: Rule
   const refPf = rule.reference === 'target-pf' ? (rule.targetPf ?? 1) : 1;
   const refText = rule.reference === 'target-pf' ? `at the ${refPf} target PF` : 'at unity PF';
   if (agg.peakKw <= 0) {
-    return { amount: 0, status: 'not-applicable', quantities: { peakKw: 0 }, explanation: 'No import demand in this period.', memory: { billed: 0, reference: 0 } };
+    return { amount: 0, status: 'not-applicable', quantities: { peakKw: 0 }, explain: () => 'No import demand in this period.', memory: { billed: 0, reference: 0 } };
   }
-  let billed: number;
-  let reference: number;
-  let formula: string;
-  let unit = 'kVA';
-  if (rule.mode === 'peak-kva') {
-    billed = agg.peakKva;
-    reference = Math.min(billed, agg.peakKw / refPf);
-    formula = `peak demand ${num(billed)} kVA; ${refText} it would be ${num(reference)} kVA (${num(agg.peakKw)} kW / ${refPf})`;
-  } else if (rule.mode === 'kw-over-average-pf') {
-    const pf = averagePf(agg.kwh, kvarhOnBasis(agg, rule.kvarhBasis)) ?? 1;
-    billed = agg.peakKw / pf;
-    reference = agg.peakKw / Math.max(pf, refPf);
-    formula = `billed ${num(agg.peakKw)} kW / average PF ${pf.toFixed(3)} = ${num(billed)} kVA; ${refText} ${num(reference)} kVA`;
-  } else {
-    const share = rule.kvaShare ?? 0.9;
-    unit = 'kW';
-    billed = Math.max(agg.peakKw, share * agg.peakKva);
-    reference = Math.max(agg.peakKw, share * Math.min(agg.peakKva, agg.peakKw / refPf));
-    formula = `billed max(${num(agg.peakKw)} kW, ${share} × ${num(agg.peakKva)} kVA) = ${num(billed)} kW; ${refText} ${num(reference)} kW`;
-  }
+  const measured = billedAndReference(rule, agg, refPf, refText);
+  let { billed, reference } = measured;
+  let formula = measured.text;
+  const unit = measured.unit;
   const quantities: Record<string, number | null> = { peakKw: agg.peakKw, peakKva: agg.peakKva, billedDemand: billed, referenceDemand: reference };
   const memory = { billed, reference };
   if (rule.ratchet) {
@@ -68,7 +53,9 @@ export function evaluateKvaBillingDemand(rule: KvaBillingDemandRule, input: Rule
     const fr = ratchetFloor(input.memory, 'reference', r.lookbackPeriods);
     billed = Math.max(billed, r.fraction * fb.max);
     reference = Math.max(reference, r.fraction * fr.max);
-    formula += `; ratchet ${num(r.fraction * 100, 0)} % over ${fb.used} of ${r.lookbackPeriods} earlier periods gives ${num(billed)} ${unit} billed against ${num(reference)} ${unit}`;
+    const before = formula;
+    const [b, ref] = [billed, reference];
+    formula = () => `${before()}; ratchet ${num(r.fraction * 100, 0)} % over ${fb.used} of ${r.lookbackPeriods} earlier periods gives ${num(b)} ${unit} billed against ${num(ref)} ${unit}`;
     quantities.ratchetPeriodsUsed = fb.used;
     quantities.billedAfterRatchet = billed;
     quantities.referenceAfterRatchet = reference;
@@ -80,7 +67,25 @@ export function evaluateKvaBillingDemand(rule: KvaBillingDemandRule, input: Rule
     amount,
     status: amount > 0 ? 'charge' : 'none',
     quantities,
-    explanation: `${formula}; PF-related demand ${num(extra)} ${unit} × ${rate(rule.demandRate, currency, unit)} = ${money(amount, currency)}.`,
+    explain: () => `${formula()}; PF-related demand ${num(extra)} ${unit} × ${rate(rule.demandRate, currency, unit)} = ${money(amount, currency)}.`,
     memory,
   };
+}
+
+function billedAndReference(rule: KvaBillingDemandRule, agg: WindowAggregate, refPf: number, refText: string): { billed: number; reference: number; unit: string; text: () => string } {
+  if (rule.mode === 'peak-kva') {
+    const billed = agg.peakKva;
+    const reference = Math.min(billed, agg.peakKw / refPf);
+    return { billed, reference, unit: 'kVA', text: () => `peak demand ${num(billed)} kVA; ${refText} it would be ${num(reference)} kVA (${num(agg.peakKw)} kW / ${refPf})` };
+  }
+  if (rule.mode === 'kw-over-average-pf') {
+    const pf = averagePf(agg.kwh, kvarhOnBasis(agg, rule.kvarhBasis)) ?? 1;
+    const billed = agg.peakKw / pf;
+    const reference = agg.peakKw / Math.max(pf, refPf);
+    return { billed, reference, unit: 'kVA', text: () => `billed ${num(agg.peakKw)} kW / average PF ${pf.toFixed(3)} = ${num(billed)} kVA; ${refText} ${num(reference)} kVA` };
+  }
+  const share = rule.kvaShare ?? 0.9;
+  const billed = Math.max(agg.peakKw, share * agg.peakKva);
+  const reference = Math.max(agg.peakKw, share * Math.min(agg.peakKva, agg.peakKw / refPf));
+  return { billed, reference, unit: 'kW', text: () => `billed max(${num(agg.peakKw)} kW, ${share} × ${num(agg.peakKva)} kVA) = ${num(billed)} kW; ${refText} ${num(reference)} kW` };
 }

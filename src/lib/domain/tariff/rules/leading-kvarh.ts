@@ -34,6 +34,6 @@ export function evaluateLeadingKvarh(rule: LeadingKvarhRule, input: RuleInput): 
     amount,
     status: amount > 0 ? 'charge' : 'none',
     quantities: { leadingKvarh: kvarh, ratePerKvarh: rule.ratePerKvarh, leadingIntervals: agg.leadingIntervals },
-    explanation: `${num(kvarh)} ${scope} × ${rate(rule.ratePerKvarh, currency, 'kvarh')} = ${money(amount, currency)}.`,
+    explain: () => `${num(kvarh)} ${scope} × ${rate(rule.ratePerKvarh, currency, 'kvarh')} = ${money(amount, currency)}.`,
   };
 }

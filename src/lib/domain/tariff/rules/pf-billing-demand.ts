@@ -53,7 +53,7 @@ export function evaluatePfBillingDemand(rule: PfBillingDemandRule, input: RuleIn
   const { agg, currency } = input;
   const measured = rulePf(agg, rule.pfBasis, rule.kvarhBasis, rule.pfRounding);
   if (agg.peakKw <= 0 || measured.pf === null) {
-    return { amount: 0, status: 'not-applicable', quantities: { peakKw: agg.peakKw, pf: null }, explanation: 'No import demand in this period, so there is no PF adjustment.', memory: { demandKw: 0, adjustedKw: 0 } };
+    return { amount: 0, status: 'not-applicable', quantities: { peakKw: agg.peakKw, pf: null }, explain: () => 'No import demand in this period, so there is no PF adjustment.', memory: { demandKw: 0, adjustedKw: 0 } };
   }
   const pf = measured.pf;
   const kw = (x: number) => (rule.demandDecimals === undefined ? x : roundTo(x, rule.demandDecimals, 'nearest'));
@@ -62,12 +62,12 @@ export function evaluatePfBillingDemand(rule: PfBillingDemandRule, input: RuleIn
   const capFactor = rule.maxIncreasePct === undefined ? Number.POSITIVE_INFINITY : 1 + rule.maxIncreasePct / 100;
   const applied = Math.min(factor.value, capFactor);
   const adjustedKw = kw(demandKw * applied);
-  const parts: string[] = [];
+  const parts: (() => string)[] = [];
   if (factor.value > 1) {
-    parts.push(`${measured.text} is below the ${rule.targetPf} target: billing demand = ${factor.text(demandKw)} = ${num(kw(demandKw * factor.value))} kW`);
-    if (applied < factor.value) parts.push(`capped at +${pct(rule.maxIncreasePct ?? 0)} = ${num(adjustedKw)} kW`);
+    parts.push(() => `${measured.text} is below the ${rule.targetPf} target: billing demand = ${factor.text(demandKw)} = ${num(kw(demandKw * factor.value))} kW`);
+    if (applied < factor.value) parts.push(() => `capped at +${pct(rule.maxIncreasePct ?? 0)} = ${num(adjustedKw)} kW`);
   } else {
-    parts.push(`${measured.text} is not below the ${rule.targetPf} target: billing demand stays ${num(demandKw)} kW`);
+    parts.push(() => `${measured.text} is not below the ${rule.targetPf} target: billing demand stays ${num(demandKw)} kW`);
   }
 
   let billedKw = adjustedKw;
@@ -82,12 +82,12 @@ export function evaluatePfBillingDemand(rule: PfBillingDemandRule, input: RuleIn
       const floor = kw(r.fraction * floorAdj.max);
       billedKw = Math.max(adjustedKw, floor);
       withoutPfKw = Math.max(demandKw, kw(r.fraction * floorRaw.max));
-      parts.push(`ratchet ${num(r.fraction * 100, 0)} % of the highest adjusted demand (${scope}) = ${num(floor)} kW, so billing demand = ${num(billedKw)} kW; without the PF adjustment it would be ${num(withoutPfKw)} kW`);
+      parts.push(() => `ratchet ${num(r.fraction * 100, 0)} % of the highest adjusted demand (${scope}) = ${num(floor)} kW, so billing demand = ${num(billedKw)} kW; without the PF adjustment it would be ${num(withoutPfKw)} kW`);
     } else {
       const base = Math.max(demandKw, kw(r.fraction * floorRaw.max));
       billedKw = kw(base * applied);
       withoutPfKw = base;
-      parts.push(`ratchet first: max(${num(demandKw)} kW, ${num(r.fraction * 100, 0)} % of the highest earlier demand (${scope})) = ${num(base)} kW, adjusted x ${applied.toFixed(4)} = ${num(billedKw)} kW`);
+      parts.push(() => `ratchet first: max(${num(demandKw)} kW, ${num(r.fraction * 100, 0)} % of the highest earlier demand (${scope})) = ${num(base)} kW, adjusted x ${applied.toFixed(4)} = ${num(billedKw)} kW`);
     }
     quantities.ratchetFloorKw = r.fraction * floorRaw.max;
     quantities.ratchetPeriodsUsed = floorRaw.used;
@@ -97,8 +97,8 @@ export function evaluatePfBillingDemand(rule: PfBillingDemandRule, input: RuleIn
   quantities.billingDemandKw = billedKw;
   quantities.billingDemandWithoutPfKw = withoutPfKw;
   quantities.pfRelatedKw = pfKw;
-  parts.push(`PF-related demand ${num(pfKw)} kW × ${rate(rule.demandRatePerKw, currency, 'kW')} = ${money(amount, currency)}`);
-  return { amount, status: amount > 0 ? 'charge' : 'none', quantities, explanation: `${parts.join('; ')}.`, memory: { demandKw, adjustedKw } };
+  parts.push(() => `PF-related demand ${num(pfKw)} kW × ${rate(rule.demandRatePerKw, currency, 'kW')} = ${money(amount, currency)}`);
+  return { amount, status: amount > 0 ? 'charge' : 'none', quantities, explain: () => `${parts.map((f) => f()).join('; ')}.`, memory: { demandKw, adjustedKw } };
 }
 
 function adjustmentFactor(rule: PfBillingDemandRule, pf: number): { value: number; text: (d: number) => string } {

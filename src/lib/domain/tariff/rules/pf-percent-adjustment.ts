@@ -61,11 +61,12 @@ export function evaluatePfPercentAdjustment(rule: PfPercentAdjustmentRule, input
   const { agg, currency } = input;
   const base = baseAmount(rule, input);
   if (base.amount === null) {
-    return { amount: 0, status: 'needs-input', quantities: { base: null }, explanation: `Enter the ${base.text} for this period to compute the PF adjustment.` };
+    return { amount: 0, status: 'needs-input', quantities: { base: null }, explain: () => `Enter the ${base.text} for this period to compute the PF adjustment.` };
   }
+  const baseValue = base.amount;
   const measured = rulePf(agg, rule.pfBasis, rule.kvarhBasis, rule.pfRounding);
   if (measured.pf === null) {
-    return { amount: 0, status: 'not-applicable', quantities: { base: base.amount, pf: null }, explanation: 'No import in this period, so there is no PF adjustment.' };
+    return { amount: 0, status: 'not-applicable', quantities: { base: base.amount, pf: null }, explain: () => 'No import in this period, so there is no PF adjustment.' };
   }
   const pf = measured.pf;
   const quantities: Record<string, number | null> = { base: base.amount, pf, rawPf: measured.rawPf };
@@ -79,7 +80,7 @@ export function evaluatePfPercentAdjustment(rule: PfPercentAdjustmentRule, input
       amount,
       status: amount > 0 ? 'charge' : 'none',
       quantities,
-      explanation: `${measured.text} is below the ${rule.thresholdPf} threshold by ${rawSteps.toFixed(2)} steps of ${rule.stepPf}, counted as ${steps}: surcharge ${breakdown} = ${pct(percent)} of ${base.text} ${money(base.amount, currency)} = ${money(amount, currency)}.`,
+      explain: () => `${measured.text} is below the ${rule.thresholdPf} threshold by ${rawSteps.toFixed(2)} steps of ${rule.stepPf}, counted as ${steps}: surcharge ${breakdown} = ${pct(percent)} of ${base.text} ${money(baseValue, currency)} = ${money(amount, currency)}.`,
     };
   }
   const c = rule.credit;
@@ -93,10 +94,10 @@ export function evaluatePfPercentAdjustment(rule: PfPercentAdjustmentRule, input
       amount,
       status: amount < 0 ? 'credit' : 'none',
       quantities,
-      explanation: `${measured.text} is above ${c.abovePf} by ${rawSteps.toFixed(2)} steps, counted as ${steps}: credit ${steps} × ${pct(c.pctPerStep)}${percent < steps * c.pctPerStep ? ` capped at ${pct(c.maxPct)}` : ''} = ${pct(percent)} of ${base.text} ${money(base.amount, currency)} = ${money(amount, currency)}.`,
+      explain: () => `${measured.text} is above ${c.abovePf} by ${rawSteps.toFixed(2)} steps, counted as ${steps}: credit ${steps} × ${pct(c.pctPerStep)}${percent < steps * c.pctPerStep ? ` capped at ${pct(c.maxPct)}` : ''} = ${pct(percent)} of ${base.text} ${money(baseValue, currency)} = ${money(amount, currency)}.`,
     };
   }
-  return { amount: 0, status: 'none', quantities, explanation: `${measured.text} is not below the ${rule.thresholdPf} threshold: no adjustment.` };
+  return { amount: 0, status: 'none', quantities, explain: () => `${measured.text} is not below the ${rule.thresholdPf} threshold: no adjustment.` };
 }
 
 function surchargePercent(rule: PfPercentAdjustmentRule, steps: number): { percent: number; breakdown: string } {

@@ -7,6 +7,7 @@ import { z } from 'zod';
 import { ErrorBodySchema } from './errors';
 import { SiteCreateSchema, SiteSchema, SiteUpdateSchema } from '../schemas/site';
 import { TariffDtoSchema, TariffVersionSchema } from '../schemas/tariff';
+import { FindingsQuerySchema, FindingsSchema } from '../schemas/findings';
 import { InvitationSchema, InviteSchema, MemberRoleSchema, MemberSchema, MeSchema, WorkspaceCreateSchema, WorkspaceSchema, WorkspaceSwitchSchema } from '../schemas/workspace';
 
 type Method = 'get' | 'post' | 'put' | 'patch' | 'delete';
@@ -17,6 +18,7 @@ export type RouteDoc = {
   tag: string;
   permission: string;
   params?: z.ZodObject;
+  query?: z.ZodObject;
   body?: z.ZodType;
   ok: { status: number; schema?: z.ZodType; description: string };
   errors?: number[];
@@ -52,6 +54,7 @@ export const ROUTES: RouteDoc[] = [
   { method: 'get', path: '/api/sites/{siteId}/tariffs/{tariffId}', summary: 'Read a tariff version', tag: 'Tariffs', permission: 'site:view', params: tariffParams, ok: { status: 200, schema: z.object({ tariff: TariffDtoSchema }), description: 'Tariff version' }, errors: [401, 404] },
   { method: 'put', path: '/api/sites/{siteId}/tariffs/{tariffId}', summary: 'Replace a tariff version', tag: 'Tariffs', permission: 'tariff:edit', params: tariffParams, body: TariffVersionSchema, ok: { status: 200, schema: z.object({ tariff: TariffDtoSchema }), description: 'Updated' }, errors: [400, 401, 403, 404, 409] },
   { method: 'delete', path: '/api/sites/{siteId}/tariffs/{tariffId}', summary: 'Delete a tariff version', tag: 'Tariffs', permission: 'tariff:edit', params: tariffParams, ok: { status: 204, description: 'Deleted' }, errors: [401, 403, 404] },
+  { method: 'get', path: '/api/sites/{siteId}/findings', summary: 'Metrics and PF charges per month or billing period, with each rule’s explanation', tag: 'Findings', permission: 'site:view', params: siteParams, query: FindingsQuerySchema, ok: { status: 200, schema: FindingsSchema, description: 'Findings' }, errors: [400, 401, 404, 422] },
 ];
 
 const ERROR_TEXT: Record<number, string> = {
@@ -81,7 +84,7 @@ export function buildOpenApi(baseUrl: string) {
       description: `Permission: ${r.permission}.`,
       tags: [r.tag],
       ...(r.permission === 'public' ? {} : { security: [{ session: [] }] }),
-      request: { ...(r.params ? { params: r.params } : {}), ...(r.body ? { body: { required: true, content: { 'application/json': { schema: r.body } } } } : {}) },
+      request: { ...(r.params ? { params: r.params } : {}), ...(r.query ? { query: r.query } : {}), ...(r.body ? { body: { required: true, content: { 'application/json': { schema: r.body } } } } : {}) },
       responses,
     });
   }

@@ -1,0 +1,107 @@
+import { describe, expect, it } from 'vitest';
+import { billingPeriods, computeMetrics, unwrap } from '../../../../src/lib/domain';
+import { constantSeries, seriesFrom } from '../support/factories';
+
+// Invented readings, 15-min intervals from midnight UTC on 6 Jan 2025, as [kWh, signed kvarh]:
+const ROWS: [number, number][] = [
+  [25, 15], // 100 kW, 60 kvar
+  [30, 20], // 120 kW, 80 kvar
+  [35, 10], // 140 kW, 40 kvar (kW peak)
+  [20, 30], // 80 kW, 120 kvar (worst PF)
+  [0, 2], // zero kW, lagging
+  [0, -3], // zero kW, leading
+  [-10, 4], // export (Q2)
+  [10, -5], // 40 kW, 20 kvar leading (Q4)
+];
+const T0 = Date.UTC(2025, 0, 6);
+const series = seriesFrom(T0, 15, ROWS);
+const day = unwrap(billingPeriods([{ from: '2025-01-06', to: '2025-01-06' }], 'UTC'));
+const [m15] = computeMetrics(series, day, { demandWindowMinutes: 15, pfThreshold: 0.9 });
+const [m30] = computeMetrics(series, day, { demandWindowMinutes: 30 });
+
+describe('period totals and average PF from energy totals (domain.md s.1)', () => {
+  it.each([
+    ['kwh', m15.kwh, 120, 'hand sum of import kWh'],
+    ['kvarhLag', m15.kvarhLag, 77, 'hand sum of lagging kvarh, import and zero-kW intervals'],
+    ['kvarhLead', m15.kvarhLead, 8, 'hand sum of leading kvarh, import and zero-kW intervals'],
+    ['kvarhNet', m15.kvarhNet, 69, 'lagging minus leading'],
+    ['pfAvgLagging', m15.pfAvgLagging, 120 / Math.hypot(120, 77), 'domain.md s.1: kWh / sqrt(kWh^2 + kvarh^2), lagging basis = 0.8416'],
+    ['pfAvgNet', m15.pfAvgNet, 120 / Math.hypot(120, 69), 'domain.md s.1, net basis = 0.8669'],
+    ['pfAvgAbsolute', m15.pfAvgAbsolute, 120 / Math.hypot(120, 85), 'domain.md s.1, absolute basis = 0.8160'],
+    ['kwhExport', m15.kwhExport, 10, 'export interval reported apart'],
+    ['kvarhLagExport', m15.kvarhLagExport, 4, 'export interval reported apart'],
+  ])('%s', (_name, actual, expected) => {
+    expect(actual).toBeCloseTo(expected as number, 9);
+  });
+  it('never averages interval PFs (domain.md s.1): the mean of interval PFs differs from the energy PF', () => {
+    const pfs = ROWS.filter(([e]) => e > 0).map(([e, q]) => e / Math.hypot(e, q));
+    const mean = pfs.reduce((s, x) => s + x, 0) / pfs.length;
+    expect(Math.abs(mean - (m15.pfAvgNet ?? 0))).toBeGreaterThan(0.01);
+  });
+});
+
+describe('demand, kVA and kvar maxima', () => {
+  it.each([
+    ['15-min peak kW', m15.peakKw, 140, 'interval 3: 35 kWh x 4'],
+    ['15-min coincident kvar', m15.peakKvar, 40, 'same interval: 10 kvarh x 4'],
+    ['15-min PF at peak', m15.peakPf, 140 / Math.hypot(140, 40), 'domain.md s.1 PF at peak = 0.9615'],
+    ['15-min peak kVA', m15.peakKva, Math.hypot(140, 40), 'interval 3: 145.6 kVA'],
+    ['15-min max kvar', m15.maxKvar, 120, 'interval 4: 30 kvarh x 4'],
+    ['30-min peak kW', m30.peakKw, 110, 'domain.md s.6: 30-min demand from 15-min data, (25+30) x 2 = 110, earliest of a tie'],
+    ['30-min coincident kvar', m30.peakKvar, 70, '(15+20) x 2'],
+    ['30-min peak kVA', m30.peakKva, Math.hypot(110, 80), 'second half-hour: 110 kW, 80 kvar'],
+    ['30-min max kvar', m30.maxKvar, 80, '(10+30) x 2'],
+  ])('%s', (_name, actual, expected) => {
+    expect(actual).toBeCloseTo(expected as number, 9);
+  });
+  it('reports the time of the peak', () => {
+    expect(m15.peakAtMs).toBe(T0 + 2 * 15 * 60_000);
+    expect(m30.peakAtMs).toBe(T0);
+  });
+  it('rolling 30-min demand sees the 130 kW that block demand splits (common practice: rolling vs block demand)', () => {
+    const [rolling] = computeMetrics(series, day, { demandWindowMinutes: 30, demandMethod: 'rolling' });
+    expect(rolling.peakKw).toBeCloseTo(130, 9);
+  });
+});
+
+describe('interval statistics and counts', () => {
+  it.each([
+    ['minIntervalPf', m15.minIntervalPf, 80 / Math.hypot(80, 120), 'interval 4: 0.5547'],
+    ['hoursBelowThreshold', m15.hoursBelowThreshold, 1, 'four import intervals below 0.90'],
+    ['loadFactor', m15.loadFactor, 120 / (140 * 24), 'kWh / (peak kW x hours)'],
+    ['zeroKwIntervals', m15.zeroKwIntervals, 2, 'domain.md s.1: zero-kW intervals counted, no PF'],
+    ['exportIntervals', m15.exportIntervals, 1, 'domain.md s.1 quadrants: Q2 export counted apart'],
+    ['leadingIntervals', m15.leadingIntervals, 1, 'Q4 import interval'],
+    ['worstLeadPf', m15.worstLeadPf, 40 / Math.hypot(40, 20), 'interval 8: 0.8944 leading'],
+    ['presentIntervals', m15.presentIntervals, 8, 'eight rows'],
+    ['expectedIntervals', m15.expectedIntervals, 96, 'common practice: 96 quarter-hours in a 24-hour day'],
+    ['completeness', m15.completeness, 8 / 96, 'present / expected'],
+  ])('%s', (_name, actual, expected) => {
+    expect(actual).toBeCloseTo(expected as number, 9);
+  });
+  it('labels senses: the worst interval lags, the net average lags', () => {
+    expect(m15.minIntervalPfSense).toBe('lag');
+    expect(m15.pfAvgNetSense).toBe('lag');
+  });
+  it('an export-only period has no PF rather than a nonsense one', () => {
+    const exportOnly = seriesFrom(T0, 15, [[-5, 2], [-6, -1]]);
+    const [m] = computeMetrics(exportOnly, day);
+    expect([m.pfAvgLagging, m.pfAvgNet, m.peakPf, m.minIntervalPf]).toEqual([null, null, null, null]);
+    expect(m.exportIntervals).toBe(2);
+  });
+});
+
+describe('completeness across a clock change', () => {
+  it.each([
+    ['America/New_York', '2025-11-02', Date.UTC(2025, 10, 2, 4), 100, 'domain.md s.6 / IANA tz: the fall-back day has 100 quarter-hours'],
+    ['America/New_York', '2025-03-09', Date.UTC(2025, 2, 9, 5), 92, 'domain.md s.6 / IANA tz: the spring-forward day has 92'],
+    ['Australia/Sydney', '2025-04-06', Date.UTC(2025, 3, 5, 13), 100, 'IANA tz: NSW fall-back day, southern hemisphere'],
+  ])('%s %s', (zone, date, startMs, count) => {
+    const s = constantSeries({ startMs, count: count + 8, intervalMinutes: 15, kw: 100, kvar: 50 });
+    const [m] = computeMetrics(s, unwrap(billingPeriods([{ from: date, to: date }], zone)));
+    expect(m.expectedIntervals).toBe(count);
+    expect(m.presentIntervals).toBe(count);
+    expect(m.completeness).toBe(1);
+    expect(m.kwh).toBeCloseTo(25 * count, 9);
+  });
+});

@@ -8,6 +8,7 @@ import { getConfig } from './lib/config';
 import { getDb } from './lib/db/client';
 import { resolveWorkspace } from './lib/db/workspaces';
 import { errorResponse, ApiError } from './lib/api/errors';
+import { markStaleImportsInterrupted } from './lib/db/meter-imports';
 
 const cfg = getConfig();
 const SAFE = new Set(['GET', 'HEAD', 'OPTIONS']);
@@ -40,7 +41,13 @@ function originAllowed(request: Request): boolean {
   return !(request.headers.get('cookie') ?? '').includes('varledger');
 }
 
+// Once per process: imports a stopped server left half-way are marked interrupted (their data was never written).
+// With a shared libSQL server another instance may be mid-import, so only imports idle for 10 minutes count.
+let recovered: Promise<unknown> | null = null;
+
 export const onRequest = defineMiddleware(async (context, next) => {
+  recovered ??= markStaleImportsInterrupted(getDb(), cfg.DATABASE_URL.startsWith('file:') ? 0 : 10 * 60_000).catch((e) => console.error('[imports] recovery failed', e));
+  await recovered;
   context.locals.user = null;
   context.locals.session = null;
   context.locals.workspace = null;

@@ -24,7 +24,7 @@ export class Client {
     const h: Record<string, string> = { origin: this.base, ...headers };
     if (this.cookies.size) h.cookie = this.cookieHeader();
     let payload: BodyInit | undefined;
-    if (typeof body === 'string') payload = body;
+    if (typeof body === 'string' || body instanceof FormData) payload = body;
     else if (body !== undefined) {
       payload = JSON.stringify(body);
       h['content-type'] ??= 'application/json';

@@ -4,7 +4,7 @@
  */
 import { z } from 'zod';
 
-export type ErrorBody = { error: { code: string; message: string; fields?: Record<string, string> } };
+export type ErrorBody = { error: { code: string; message: string; fields?: Record<string, string>; [k: string]: unknown } };
 
 export class ApiError extends Error {
   constructor(
@@ -12,6 +12,8 @@ export class ApiError extends Error {
     readonly code: string,
     message: string,
     readonly fields?: Record<string, string>,
+    /** Further members of `error`, e.g. `problems` of a rejected file or the `overlap` found. */
+    readonly extra?: Record<string, unknown>,
   ) {
     super(message);
   }
@@ -38,11 +40,17 @@ export function json(data: unknown, status = 200, headers: Record<string, string
 }
 
 export function errorResponse(err: ApiError): Response {
-  const body: ErrorBody = { error: { code: err.code, message: err.message, ...(err.fields ? { fields: err.fields } : {}) } };
+  const body: ErrorBody = { error: { code: err.code, message: err.message, ...(err.fields ? { fields: err.fields } : {}), ...(err.extra ?? {}) } };
   return json(body, err.status);
 }
 
 /** Schema of the error body, for the OpenAPI document. */
 export const ErrorBodySchema = z.object({
-  error: z.object({ code: z.string(), message: z.string(), fields: z.record(z.string(), z.string()).optional() }),
+  error: z.object({
+    code: z.string(),
+    message: z.string(),
+    fields: z.record(z.string(), z.string()).optional().meta({ description: 'What is wrong with each field, by path' }),
+    problems: z.array(z.object({ row: z.number().nullable(), column: z.string().nullable(), value: z.string().nullable(), message: z.string(), code: z.string() })).optional().meta({ description: 'File problems (first 100), rows 1-based' }),
+    totalProblems: z.number().optional(),
+  }),
 });

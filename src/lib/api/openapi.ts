@@ -8,6 +8,7 @@ import { ErrorBodySchema } from './errors';
 import { SiteCreateSchema, SiteSchema, SiteUpdateSchema } from '../schemas/site';
 import { TariffDtoSchema, TariffVersionSchema } from '../schemas/tariff';
 import { FindingsQuerySchema, FindingsSchema } from '../schemas/findings';
+import { ImportSchema, MeterSchema } from '../meter-data/dto';
 import { InvitationSchema, InviteSchema, MemberRoleSchema, MemberSchema, MeSchema, WorkspaceCreateSchema, WorkspaceSchema, WorkspaceSwitchSchema } from '../schemas/workspace';
 
 type Method = 'get' | 'post' | 'put' | 'patch' | 'delete';
@@ -20,11 +21,18 @@ export type RouteDoc = {
   params?: z.ZodObject;
   query?: z.ZodObject;
   body?: z.ZodType;
+  /** multipart/form-data body instead of JSON. */
+  multipart?: z.ZodObject;
   ok: { status: number; schema?: z.ZodType; description: string };
   errors?: number[];
 };
 
 const siteParams = z.object({ siteId: z.string().meta({ description: 'Site id', example: 'site_3fQk...' }) });
+const meterUpload = z.object({
+  file: z.string().meta({ format: 'binary', description: 'The meter export (CSV text), streamed' }),
+  mapping: z.string().meta({ description: 'The confirmed MeterMapping as JSON (see the mapping step)' }),
+  replace: z.enum(['true', 'false']).optional().meta({ description: 'Overwrite data already imported in the same range (needed after a 409 overlap)' }),
+});
 const tariffParams = siteParams.extend({ tariffId: z.string().meta({ description: 'Tariff version id' }) });
 const memberParams = z.object({ memberId: z.string() });
 const invitationParams = z.object({ invitationId: z.string() });
@@ -55,6 +63,9 @@ export const ROUTES: RouteDoc[] = [
   { method: 'put', path: '/api/sites/{siteId}/tariffs/{tariffId}', summary: 'Replace a tariff version', tag: 'Tariffs', permission: 'tariff:edit', params: tariffParams, body: TariffVersionSchema, ok: { status: 200, schema: z.object({ tariff: TariffDtoSchema }), description: 'Updated' }, errors: [400, 401, 403, 404, 409] },
   { method: 'delete', path: '/api/sites/{siteId}/tariffs/{tariffId}', summary: 'Delete a tariff version', tag: 'Tariffs', permission: 'tariff:edit', params: tariffParams, ok: { status: 204, description: 'Deleted' }, errors: [401, 403, 404] },
   { method: 'get', path: '/api/sites/{siteId}/findings', summary: 'Metrics and PF charges per month or billing period, with each rule’s explanation', tag: 'Findings', permission: 'site:view', params: siteParams, query: FindingsQuerySchema, ok: { status: 200, schema: FindingsSchema, description: 'Findings' }, errors: [400, 401, 404, 422] },
+  { method: 'get', path: '/api/sites/{siteId}/meter-data', summary: 'Meters (with saved import profiles) and the import history', tag: 'Meter data', permission: 'site:view', params: siteParams, ok: { status: 200, schema: z.object({ meters: z.array(MeterSchema), imports: z.array(ImportSchema) }), description: 'Meters and imports' }, errors: [401, 404] },
+  { method: 'post', path: '/api/sites/{siteId}/meter-data', summary: 'Upload and import a meter export, all or nothing', tag: 'Meter data', permission: 'meter:upload', params: siteParams, query: z.object({ importId: z.string().optional().meta({ description: 'Client-chosen id (imp_...) to poll progress while the upload runs' }) }), multipart: meterUpload, ok: { status: 201, schema: z.object({ import: ImportSchema }), description: 'Imported, with the data-quality report' }, errors: [400, 401, 403, 404, 409, 413, 415, 422] },
+  { method: 'get', path: '/api/sites/{siteId}/meter-data/imports/{importId}', summary: 'One import: progress, data-quality report, problems', tag: 'Meter data', permission: 'site:view', params: siteParams.extend({ importId: z.string() }), ok: { status: 200, schema: z.object({ import: ImportSchema }), description: 'Import' }, errors: [401, 404] },
 ];
 
 const ERROR_TEXT: Record<number, string> = {
@@ -65,7 +76,8 @@ const ERROR_TEXT: Record<number, string> = {
   409: 'Conflict with existing data',
   410: 'Expired',
   413: 'Body too large',
-  415: 'Body is not JSON',
+  415: 'Wrong body or file type',
+  422: 'The file or data cannot be used; `error.problems` lists rows',
 };
 
 /** Builds the OpenAPI 3.1 document. */
@@ -84,7 +96,7 @@ export function buildOpenApi(baseUrl: string) {
       description: `Permission: ${r.permission}.`,
       tags: [r.tag],
       ...(r.permission === 'public' ? {} : { security: [{ session: [] }] }),
-      request: { ...(r.params ? { params: r.params } : {}), ...(r.query ? { query: r.query } : {}), ...(r.body ? { body: { required: true, content: { 'application/json': { schema: r.body } } } } : {}) },
+      request: { ...(r.params ? { params: r.params } : {}), ...(r.query ? { query: r.query } : {}), ...(r.body ? { body: { required: true, content: { 'application/json': { schema: r.body } } } } : {}), ...(r.multipart ? { body: { required: true, content: { 'multipart/form-data': { schema: r.multipart } } } } : {}) },
       responses,
     });
   }

@@ -1,0 +1,71 @@
+/**
+ * The HTTP side of a meter-data upload: read the multipart body to the file store, check
+ * the mapping and the bytes, refuse a file already imported, then run the import.
+ */
+import { z } from 'zod';
+import { randomBytes } from 'node:crypto';
+import type { Db } from '../db/client';
+import { ApiError, fromZod } from '../api/errors';
+import { readMultipart } from '../files/multipart';
+import { commitToStore, discardTemp } from '../files/store';
+import { MeterMappingSchema } from '../import/mapping-schema';
+import { addStoredFile, findStoredFile, importedFromFile } from '../db/meter-imports';
+import { runImport } from './import-file';
+import type { SiteDto } from '../schemas/site';
+import { sanitizeFileName } from '../files/names';
+
+export const ImportIdSchema = z.string().regex(/^imp_[A-Za-z0-9_-]{8,40}$/, 'An import id looks like imp_ followed by 8 to 40 letters, digits, - or _.');
+export const newImportId = () => `imp_${randomBytes(12).toString('base64url')}`;
+
+/** Text files only: no NUL bytes in the first 64 KB, and valid UTF-8 (a BOM is fine). */
+export function looksLikeText(head: Buffer): boolean {
+  if (head.includes(0)) return false;
+  try {
+    new TextDecoder('utf-8', { fatal: true }).decode(head.subarray(0, Math.max(0, head.length - 4)));
+    return true;
+  } catch {
+    return false;
+  }
+}
+
+export async function receiveMeterUpload(db: Db, request: Request, ctx: { site: SiteDto; organizationId: string; userId: string; maxBytes: number; importId?: string }) {
+  const upload = await readMultipart(request, { fileField: 'file', maxFileBytes: ctx.maxBytes });
+  const file = upload.file;
+  try {
+    if (!file || file.bytes === 0) {
+      if (file) await discardTemp(file);
+      throw new ApiError(file ? 422 : 400, file ? 'invalid_file' : 'invalid_input', file ? 'The file is empty. Export the meter data again and upload the CSV file.' : 'Attach the meter export in the "file" field.', file ? undefined : { file: 'Required.' }, file ? { problems: [{ row: null, column: null, value: null, code: 'file-empty', message: 'The file is empty.' }], totalProblems: 1 } : undefined);
+    }
+    let mappingJson: unknown;
+    try {
+      mappingJson = JSON.parse(upload.fields.mapping ?? '');
+    } catch {
+      throw new ApiError(400, 'invalid_input', 'Send the confirmed column mapping as JSON in the "mapping" field.', { mapping: 'Missing or not JSON.' });
+    }
+    const mapping = MeterMappingSchema.safeParse(mappingJson);
+    if (!mapping.success) {
+      const e = fromZod(mapping.error);
+      const fields = Object.fromEntries(Object.entries(e.fields ?? {}).map(([k, v]) => [`mapping.${k}`, v]));
+      throw new ApiError(400, 'invalid_input', `mapping.${e.message}`, fields);
+    }
+    if (!looksLikeText(file.head)) {
+      throw new ApiError(415, 'not_csv', `"${sanitizeFileName(file.fileName)}" is not a text file. Upload the meter export as CSV (comma, semicolon or tab separated text), not a spreadsheet or PDF.`);
+    }
+    const importId = ctx.importId ?? newImportId();
+    const replace = upload.fields.replace === 'true';
+    const fileName = sanitizeFileName(file.fileName);
+    let stored = await findStoredFile(db, ctx.organizationId, ctx.site.id, 'meter-data', file.sha256);
+    if (stored && !replace) {
+      const earlier = await importedFromFile(db, ctx.organizationId, stored.id);
+      if (earlier) {
+        await discardTemp(file);
+        throw new ApiError(409, 'already_imported', `This file was already imported on ${earlier.createdAt.toISOString().slice(0, 10)} (${earlier.intervals.toLocaleString('en-US')} intervals). Nothing was added. To import it again with another mapping, upload it with "replace".`, undefined, { importId: earlier.id });
+      }
+    }
+    await commitToStore(file);
+    stored ??= await addStoredFile(db, { organizationId: ctx.organizationId, siteId: ctx.site.id, kind: 'meter-data', sha256: file.sha256, fileName, contentType: 'text/csv', bytes: file.bytes, createdBy: ctx.userId });
+    return await runImport(db, { importId, site: ctx.site, organizationId: ctx.organizationId, userId: ctx.userId, fileId: stored.id, sha256: file.sha256, bytes: file.bytes, mapping: mapping.data, replace });
+  } finally {
+    if (file) await discardTemp(file).catch(() => undefined);
+  }
+}

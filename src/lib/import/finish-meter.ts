@@ -111,10 +111,18 @@ export function finishMeter(rows: MeterRows, set: ChannelSet, m: MeterMapping, p
 
   // Interval length: the most common spacing (ties go to the shorter one).
   const counts = new Map<number, number>();
+  let runD = Number.NaN;
+  let runCount = 0;
   for (let i = 1; i < n; i++) {
     const d = stamps[i] - stamps[i - 1];
-    counts.set(d, (counts.get(d) ?? 0) + 1);
+    if (d === runD) runCount++;
+    else {
+      if (runCount) counts.set(runD, (counts.get(runD) ?? 0) + runCount);
+      runD = d;
+      runCount = 1;
+    }
   }
+  if (runCount) counts.set(runD, (counts.get(runD) ?? 0) + runCount);
   let modal = 0;
   let modalCount = 0;
   for (const [d, c] of counts) if (c > modalCount || (c === modalCount && d < modal)) [modal, modalCount] = [d, c];

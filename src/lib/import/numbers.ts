@@ -16,33 +16,52 @@ export type NumberReader = (text: string) => number | null;
  */
 export function numberReader(decimalSeparator: '.' | ',', missingValues: readonly string[]): NumberReader {
   const missing = new Set(missingValues.map((v) => v.trim()));
-  const hasMissing = missing.size > 0;
-  return (raw: string): number | null => {
-    let text = raw;
-    // Trim only when needed: most cells are clean.
-    const c0 = text.charCodeAt(0);
-    const cl = text.charCodeAt(text.length - 1);
-    if (c0 <= 32 || cl <= 32 || c0 === 34) text = text.trim().replace(/^"(.*)"$/, '$1').trim();
-    if (hasMissing && (text.length === 0 || text.length < 8) && missing.has(text)) return MISSING;
+  const emptyIsMissing = missing.has('');
+  const comma = decimalSeparator === ',';
+  const slow = (raw: string): number | null => {
+    const text = raw.trim().replace(/^"(.*)"$/, '$1').trim();
+    if (missing.has(text)) return MISSING;
     if (text.length === 0) return null;
-    if (decimalSeparator === ',') {
-      if (text.indexOf('.') !== -1) return null;
-      const comma = text.indexOf(',');
-      if (comma !== -1) {
-        if (text.indexOf(',', comma + 1) !== -1) return null;
-        text = text.slice(0, comma) + '.' + text.slice(comma + 1);
-      }
-    } else if (text.indexOf(',') !== -1) {
-      return null;
+    if (!/^[+-]?(\d+([.,]\d*)?|[.,]\d+)([eE][+-]?\d+)?$/.test(text)) return null;
+    const sep = comma ? ',' : '.';
+    if (text.includes(comma ? '.' : ',')) return null;
+    const v = Number(comma ? text.replace(sep, '.') : text);
+    return Number.isFinite(v) ? v : null;
+  };
+  const sepCode = comma ? 44 : 46;
+  return (text: string): number | null => {
+    const len = text.length;
+    if (len === 0) return emptyIsMissing ? MISSING : null;
+    // Fast path for plain decimals of up to 15 digits: the integer mantissa and the power
+    // of ten are exact doubles, so one division gives the correctly rounded value, the
+    // same double Number() would return.
+    let i = 0;
+    let neg = false;
+    let c = text.charCodeAt(0);
+    if (c === 45 || c === 43) {
+      neg = c === 45;
+      i = 1;
     }
-    const v = +text;
-    if (v !== v || v === Infinity || v === -Infinity) return null;
-    // `+` accepts 0x10, 0b1 and 1_0-free forms; refuse anything that is not decimal.
-    const c = text.charCodeAt(text.length > 1 ? 1 : 0);
-    if (c === 120 || c === 88 || c === 98 || c === 66 || c === 111 || c === 79) return null;
-    return v;
+    let mant = 0;
+    let digitsSeen = 0;
+    let scale = 0;
+    let dot = false;
+    for (; i < len; i++) {
+      c = text.charCodeAt(i);
+      if (c >= 48 && c <= 57) {
+        mant = mant * 10 + (c - 48);
+        digitsSeen++;
+        if (dot) scale++;
+      } else if (c === sepCode && !dot) dot = true;
+      else return slow(text);
+    }
+    if (digitsSeen === 0 || digitsSeen > 15) return slow(text);
+    const v = scale ? mant / POW10[scale] : mant;
+    return neg ? -v : v;
   };
 }
+
+const POW10 = [1, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10, 1e11, 1e12, 1e13, 1e14, 1e15];
 
 /** Formats a 1-based line number the way messages show it: 1,204. */
 export function formatRow(row: number): string {

@@ -111,10 +111,33 @@ export const SPIKE_FACTOR = 5;
 /** Implausible PF rule: an importing interval with PF below 0.3. */
 export const PF_IMPLAUSIBLE = 0.3;
 
-function percentile(values: Float64Array, p: number): number {
-  const sorted = Float64Array.from(values).sort();
-  if (sorted.length === 0) return Number.NaN;
-  return sorted[Math.min(sorted.length - 1, Math.floor(p * (sorted.length - 1)))];
+/** The value at rank floor(p x (n - 1)) of `values` (nearest-rank, no interpolation); quickselect on `values` in place. */
+export function percentile(values: Float64Array, p: number): number {
+  const n = values.length;
+  if (n === 0) return Number.NaN;
+  const k = Math.min(n - 1, Math.floor(p * (n - 1)));
+  let lo = 0;
+  let hi = n - 1;
+  while (lo < hi) {
+    const pivot = values[(lo + hi) >>> 1];
+    let i = lo;
+    let j = hi;
+    while (i <= j) {
+      while (values[i] < pivot) i++;
+      while (values[j] > pivot) j--;
+      if (i <= j) {
+        const t = values[i];
+        values[i] = values[j];
+        values[j] = t;
+        i++;
+        j--;
+      }
+    }
+    if (k <= j) hi = j;
+    else if (k >= i) lo = i;
+    else break;
+  }
+  return values[k];
 }
 
 export function meterQuality(f: FinishedMeter, m: MeterMapping, clock: ClockContext, zone: ZoneResolver | null): MeterQuality {

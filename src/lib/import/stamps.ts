@@ -31,6 +31,21 @@ export function wallMs(y: number, mo: number, d: number, h: number, mi: number, 
   return Date.UTC(y, mo - 1, d, h, mi, s, ms);
 }
 
+let cachedDayKey = -1;
+let cachedDayMs = 0;
+
+/** `wallMs` with the date part cached: consecutive rows nearly always share the date. */
+function fastWall(y: number, mo: number, d: number, h: number, mi: number, s: number, ms: number): number {
+  const key = y * 10_000 + mo * 100 + d;
+  if (key !== cachedDayKey || h > 23 || mi > 59 || s > 59) {
+    const full = wallMs(y, mo, d, h, mi, s, ms);
+    if (full !== full || h > 23) return full;
+    cachedDayKey = key;
+    cachedDayMs = Date.UTC(y, mo - 1, d);
+  }
+  return cachedDayMs + h * 3_600_000 + mi * 60_000 + s * 1000 + ms;
+}
+
 function digits(t: string, at: number, n: number): number {
   let v = 0;
   for (let i = at; i < at + n; i++) {
@@ -79,7 +94,7 @@ export function readIso(date: string, time: string | undefined, out: StampOut): 
       frac = Math.round(frac);
     }
   }
-  const ms = wallMs(y, mo, d, h, mi, s, frac);
+  const ms = fastWall(y, mo, d, h, mi, s, frac);
   if (ms !== ms) return false;
   if (i === t.length) {
     out.ms = ms;

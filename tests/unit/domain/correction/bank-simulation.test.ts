@@ -1,0 +1,126 @@
+import { describe, expect, it } from 'vitest';
+import {
+  computeMetrics,
+  correctedPf,
+  evaluatePrepared,
+  evaluateTariff,
+  kvarToCorrect,
+  monthlyPeriods,
+  parseTariff,
+  prepareTariff,
+  simulateFixedBank,
+  simulateSwitchedBank,
+  unwrap,
+} from '../../../../src/lib/domain';
+import { Field } from '../../../../src/lib/domain/power/aggregate-fields';
+import { KERNEL_FIELDS } from '../../../../src/lib/domain/power/aggregate-kernel';
+import { applyBankKvarh } from '../../../../src/lib/domain/correction/apply-correction';
+import { constantSeries, seriesByTime } from '../support/factories';
+
+const START = Date.UTC(2025, 0, 1);
+const HOUR = 3_600_000;
+const januaryOf = (s: { startMs: Float64Array; length: number }) => unwrap(monthlyPeriods({ fromMs: s.startMs[0], toMs: s.startMs[s.length - 1] + 1 }, 'UTC'));
+
+describe('fixed bank on a constant load', () => {
+  it.each([
+    [100, 0.8, 0.95, 'IEEE Std 141 ch. 8: Qc = P (tan phi1 - tan phi2) lands on PF2'],
+    [620, 0.65, 0.9, 'domain.md s.5: 620 kW from 0.65 to 0.90 with 424.6 kvar'],
+    [250, 0.75, 1.0, 'common practice: full compensation to unity'],
+  ])('%s kW from PF %s to %s', (kw, from, to) => {
+    const kvar = kw * Math.sqrt(1 - from * from) / from;
+    const s = constantSeries({ startMs: START, count: 96, intervalMinutes: 15, kw, kvar });
+    const sim = simulateFixedBank(s, { kvar: kvarToCorrect(kw, from, to) }, januaryOf(s));
+    const [m] = computeMetrics(sim.series, januaryOf(s));
+    expect(m.pfAvgNet).toBeCloseTo(to, 9);
+    expect(m.peakPf).toBeCloseTo(correctedPf(kw, kvar, kvarToCorrect(kw, from, to)), 9);
+  });
+
+  it('scales output by (V / Vrated)^2 (common practice: 460 V on a 480 V bank gives 91.84 %)', () => {
+    const s = constantSeries({ startMs: START, count: 4, intervalMinutes: 15, kw: 100, kvar: 100 });
+    const sim = simulateFixedBank(s, { kvar: 100, ratedVoltageV: 480, serviceVoltageV: 460 }, januaryOf(s));
+    expect(sim.effectiveKvar).toBeCloseTo(91.84, 2);
+    expect(sim.series.kvarhLag[0]).toBeCloseTo((100 - 100 * (460 / 480) ** 2) / 4, 9);
+  });
+});
+
+describe('fixed bank at light load goes leading (domain.md s.3)', () => {
+  // Invented plant: 08:00-18:00 UTC 400 kW / 300 kvar; otherwise 20 kW / 10 kvar. A 200 kvar bank.
+  const day = (t: number) => new Date(t).getUTCHours() >= 8 && new Date(t).getUTCHours() < 18;
+  const s = seriesByTime(START, 31 * 24, 60, (t) => (day(t) ? { kw: 400, kvar: 300 } : { kw: 20, kvar: 10 }));
+  const periods = januaryOf(s);
+  const sim = simulateFixedBank(s, { kvar: 200 }, periods);
+
+  it.each([
+    ['leading hours', sim.summary.leadingHours, 31 * 14, '14 light-load hours a day'],
+    ['leading kvarh', sim.summary.leadingKvarh, 31 * 14 * 190, '200 - 10 = 190 kvar leading each light-load hour'],
+    ['worst leading PF', sim.summary.worstLeadPf, 20 / Math.hypot(20, 190), 'domain.md s.1 PF = P / sqrt(P^2 + Q^2) = 0.1047 leading'],
+  ])('%s', (_n, actual, expected) => {
+    expect(actual).toBeCloseTo(expected as number, 6);
+  });
+  it('flags the month as over-corrected and says so', () => {
+    expect(sim.summary.overCorrectedPeriods).toEqual(['January 2025']);
+    expect(sim.notes[0]).toMatch(/over-corrects at light load in January 2025/);
+  });
+});
+
+describe('switched bank controller', () => {
+  const load = (kw: number, kvar: number) => constantSeries({ startMs: START, count: 4, intervalMinutes: 15, kw, kvar });
+  it.each([
+    // kW, kvar, steps, target, leading limit, kvar left, source
+    [100, 75, [10, 10, 10, 10, 10, 10], 0.95, 1, 25, 'need 75 - 32.87 = 42.1 kvar -> 5 of 6 steps (IEEE Std 141 tan relation)'],
+    [100, 15, [10, 10], 1.0, 1, 5, 'the second step would pass unity: stays at 5 kvar lagging'],
+    [100, 15, [10, 10], 1.0, 0.95, -5, 'with a 0.95 leading limit the second step is allowed'],
+    [100, 50, [5, 10, 20], 0.95, 1, 15, 'listed steps in order: 5 + 10 + 20 = 35 kvar'],
+    [100, 20, [10, 10, 10], 0.95, 1, 20, 'already above target (PF 0.981): no steps'],
+    [100, -10, [10], 0.95, 1, -10, 'already leading: no steps'],
+  ])('%s kW, %s kvar, steps %j', (kw, kvar, stepsKvar, targetPf, leadingLimitPf, left) => {
+    const s = load(kw, kvar);
+    const sim = simulateSwitchedBank(s, { stepsKvar, targetPf, leadingLimitPf }, januaryOf(s));
+    expect((sim.series.kvarhLag[0] - sim.series.kvarhLead[0]) * 4).toBeCloseTo(left, 9);
+  });
+
+  it('never goes past unity on a varied load (domain.md s.3)', () => {
+    const s = seriesByTime(START, 2000, 15, (_t, i) => ({ kw: 50 + ((i * 37) % 400), kvar: 10 + ((i * 53) % 300) }));
+    const sim = simulateSwitchedBank(s, { stepsKvar: Array(8).fill(40), targetPf: 0.98 }, januaryOf(s));
+    let worstNet = Infinity;
+    for (let i = 0; i < s.length; i++) worstNet = Math.min(worstNet, sim.series.kvarhLag[i] - sim.series.kvarhLead[i]);
+    expect(worstNet).toBeGreaterThanOrEqual(-1e-9);
+    expect(sim.summary.leadingIntervals).toBe(0);
+    expect(sim.notes[0]).toMatch(/averages/);
+  });
+
+  it('switches nothing at zero kW or export', () => {
+    const s = seriesByTime(START, 4, 15, (_t, i) => ({ kw: i < 2 ? 0 : -50, kvar: 40 }));
+    const sim = simulateSwitchedBank(s, { stepsKvar: [20, 20], targetPf: 0.95 }, januaryOf(s));
+    expect(Array.from(sim.series.kvarhLag)).toEqual(Array.from(s.kvarhLag));
+  });
+});
+
+describe('the corrected series and the kernel agree', () => {
+  const s = seriesByTime(START, 31 * 96, 15, (t) => {
+    const h = new Date(t).getUTCHours();
+    return h >= 7 && h < 19 ? { kw: 300, kvar: 240 } : { kw: 40, kvar: 25 };
+  });
+  const periods = januaryOf(s);
+  const tariff = unwrap(
+    parseTariff({
+      name: 'Invented mixed tariff',
+      currency: 'USD',
+      demandWindowMinutes: 30,
+      rules: [
+        { type: 'pf-billing-demand', id: 'bd', targetPf: 0.9, demandRatePerKw: 12 },
+        { type: 'excess-kvar-demand', id: 'kv', allowance: { basis: 'pf', pf: 0.9 }, kvarSource: 'period-max', ratePerKvar: 2 },
+        { type: 'excess-kvarh', id: 'xr', kvarhBasis: 'absolute', allowance: { basis: 'ratio', kvarPerKw: 0.4 }, pricing: { kind: 'flat', ratePerKvarh: 0.01 }, window: { timeRanges: [{ from: '20:00', to: '06:00' }] } },
+        { type: 'leading-kvarh', id: 'ld', ratePerKvarh: 0.03, condition: 'any-load' },
+      ],
+    }),
+  );
+  it.each([0, 60, 150, 300])('a %s kvar fixed bank: kernel correction = evaluation of the corrected series', (kvar) => {
+    const direct = evaluatePrepared(prepareTariff(tariff, s, periods), { kind: 'constant', kvarh: kvar / 4 });
+    const viaSeries = evaluateTariff(tariff, applyBankKvarh(s, kvar / 4), periods);
+    expect(direct.byRule.map((r) => r.total)).toEqual(viaSeries.byRule.map((r) => r.total).map((x) => expect.closeTo(x, 9)));
+  });
+  it('kernel field offsets match the named fields', () => {
+    expect(KERNEL_FIELDS).toEqual(Field);
+  });
+});

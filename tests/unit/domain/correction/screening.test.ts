@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { CAPACITOR_LIMITS, capacitorDuty, CAUTIONS, detunedTuningOrder, screenResonance, screenResonanceSteps, voltageRise } from '../../../../src/lib/domain';
 
 describe('parallel resonance order h = sqrt(kVA_sc / kvar)', () => {
-  it.each([
+  it.each<[number, number, number, number, number, number | null, string]>([
     // kVA, Z %, kvar, h, decimals given, near harmonic, source
     [1000, 5.3, 100, 13.7, 1, 13, 'domain.md s.3 screening check (1000 kVA, 5.3 %, 100 kvar -> 13.7)'],
     [1500, 5.75, 600, 6.59, 2, 7, 'domain.md s.3 screening check (1500 kVA, 5.75 %, 600 kvar -> 6.59)'],

@@ -1,6 +1,6 @@
 import { irr as refIrr, npv as refNpv } from 'financial';
 import { describe, expect, it } from 'vitest';
-import { capexOf, economics, irr, levelFlows, lossSavingBenefit, npv, releasedCapacityBenefit, simplePayback } from '../../../../src/lib/domain';
+import { capexOf, type CapexInput, economics, irr, levelFlows, lossSavingBenefit, npv, releasedCapacityBenefit, simplePayback } from '../../../../src/lib/domain';
 
 describe('NPV against numpy-financial (npm `financial`)', () => {
   it.each([
@@ -101,7 +101,7 @@ describe('economics of a plan', () => {
 });
 
 describe('capex', () => {
-  it.each([
+  it.each<[CapexInput, number, string]>([
     [{ kvar: 300, costPerKvar: 35, fixedCost: 5000 }, 15500, 'domain.md s.4: kvar x cost per kvar + fixed installation'],
     [{ kvar: 300, costPerKvar: 60, fixedCost: 5000, detuningPremiumPerKvar: 40 }, 35000, 'domain.md s.4: + detuning premium'],
   ])('%j', (input, total) => {

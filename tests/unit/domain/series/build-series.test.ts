@@ -15,10 +15,10 @@ describe('building a series', () => {
     expect(r.warnings.map((w) => w.code)).toContain('reactive-net-only');
   });
 
-  it.each([
+  it.each<['kW' | 'kWh', number, number, string]>([
     ['kW', 100, 25, 'domain.md s.1: kWh = kW x T/60, 100 kW for 15 min = 25 kWh'],
     ['kWh', 25, 25, 'energy passes through'],
-  ] as const)('active unit %s', (unit, value, kwh) => {
+  ])('active unit %s', (unit, value, kwh) => {
     const r = buildSeries({ intervalMinutes: 15, stamps: [T0], active: [value], activeUnit: unit, reactive: { kind: 'none' } });
     expect(r.ok && r.value.kwh[0]).toBe(kwh);
   });

@@ -20,7 +20,7 @@ const nightRule = (window: object) => ({
 const tariffWith = (rules: TariffInput['rules'], extra: Partial<TariffInput> = {}) => unwrap(parseTariff({ name: 'Invented test tariff', currency: 'USD', rules, ...extra }));
 
 describe('time-of-use windows in local time', () => {
-  it.each([
+  it.each<[object, string[], number, string]>([
     // window, holidays, billable kvarh, source
     [{ timeRanges: [{ from: '22:00', to: '06:00' }] }, [], 56 * 30, '22:00-06:00 wraps midnight: 8 night hours x 7 days, (80 - 50) kvarh each'],
     [{ weekdays: [1, 2, 3, 4, 5], timeRanges: [{ from: '22:00', to: '06:00' }] }, [], 40 * 30, 'weekdays judged by each interval\'s own local date: 5 x 8 hours'],
@@ -120,7 +120,7 @@ describe('tariff schema', () => {
     expect(RULE_TYPES.every((t) => t.label.length > 0)).toBe(true);
   });
 
-  it.each([
+  it.each<[string, string | null, string]>([
     ['2024-12-31', null, 'before every version'],
     ['2025-01-01', 'v2025', 'on the effective date'],
     ['2025-09-30', 'v2025', 'the day before the next version'],

@@ -23,10 +23,10 @@ describe('excess reactive demand', () => {
     expect(r.amount).toBeCloseTo((750 - allowed) * 0.4, 1);
   });
 
-  it.each([
+  it.each<['coincident' | 'period-max', number, number, string]>([
     ['coincident', 300, 0, 'domain.md s.1: the kvar of the same reading as the kW peak, 300, is within the 333 kvar allowance'],
     ['period-max', 900, (900 - 1000 / 3) * 0.4, 'domain.md s.1: non-coincident, the period maximum kvar against the maximum kW'],
-  ] as const)('%s kvar', (kvarSource, _q, amount) => {
+  ])('%s kvar', (kvarSource, _q, amount) => {
     // Peak 1000 kW with only 300 kvar; the period's highest kvar, 900, came at another time.
     const r = runRule(rule({ kvarSource }), aggregateOf({ peakKw: 1000, peakKvar: 300, maxKvar: 900 }));
     expect(r.amount).toBeCloseTo(amount, 9);

@@ -1,13 +1,14 @@
 import { describe, expect, it } from 'vitest';
+import type { Allowance } from '../../../../src/lib/domain';
 import { aggregateOf } from '../support/factories';
 import { runRule } from '../support/rules';
 
 // domain.md s.5: 10,000 kWh with 6,000 kvarh (average PF 0.857).
 const period = aggregateOf({ kwh: 10_000, kvarhLag: 6_000 });
-const rule = (allowance: object, extra = {}) => ({ type: 'excess-kvarh' as const, id: 'xr', allowance, pricing: { kind: 'flat' as const, ratePerKvarh: 0.05 }, ...extra });
+const rule = (allowance: Allowance, extra = {}) => ({ type: 'excess-kvarh' as const, id: 'xr', allowance, pricing: { kind: 'flat' as const, ratePerKvarh: 0.05 }, ...extra });
 
 describe('excess reactive energy', () => {
-  it.each([
+  it.each<[Allowance, number, string]>([
     [{ basis: 'ratio', kvarPerKw: 0.4 }, 2000, 'domain.md s.5: k = 0.4 -> 2,000 kvarh billable'],
     [{ basis: 'ratio', kvarPerKw: 0.5 }, 1000, 'domain.md s.5: k = 0.5 -> 1,000'],
     [{ basis: 'ratio', kvarPerKw: 0.33 }, 2700, 'domain.md s.5: k = 0.33 -> 2,700'],
@@ -33,11 +34,11 @@ describe('excess reactive energy', () => {
     expect(r.amount).toBeCloseTo(Math.max(0, kvarh - 3300) * unitRate, 9);
   });
 
-  it.each([
+  it.each<['lagging' | 'net' | 'absolute', number, string]>([
     ['lagging', 6000 - 4000, 'domain.md s.1: leading ignored'],
     ['net', 6000 - 1500 - 4000, 'domain.md s.1: net = lagging - leading'],
     ['absolute', 6000 + 1500 - 4000, 'domain.md s.1: absolute = lagging + leading'],
-  ] as const)('leading kvarh on the %s basis', (kvarhBasis, billable) => {
+  ])('leading kvarh on the %s basis', (kvarhBasis, billable) => {
     const r = runRule(rule({ basis: 'ratio', kvarPerKw: 0.4 }, { kvarhBasis }), aggregateOf({ kwh: 10_000, kvarhLag: 6_000, kvarhLead: 1_500 }));
     expect(r.quantities.billableKvarh).toBeCloseTo(billable, 9);
   });

@@ -13,7 +13,7 @@ describe('kVA billing demand', () => {
     ['kW over average PF', { mode: 'kw-over-average-pf' }, 1250, 1000, 'domain.md s.2 clause 2: peak kW / average PF (average PF 0.80)'],
     ['greater of kW or 0.90 kVA', { mode: 'greater-of-kw-or-kva-share', kvaShare: 0.9 }, 1125, 1000, 'domain.md s.2 clause 2: max(kW, 0.90 x kVA) = max(1000, 1125)'],
     ['greater of, target 0.95', { mode: 'greater-of-kw-or-kva-share', kvaShare: 0.9, reference: 'target-pf', targetPf: 0.95 }, 1125, 1000, 'at PF 0.95: 0.9 x 1052.6 = 947.4 < 1000 kW'],
-  ])('%s', (_name, extra, billed, reference) => {
+  ])('%s', (_name, extra, billed, reference, _source) => {
     const r = runRule(rule(extra), peak);
     expect(r.quantities.billedDemand).toBeCloseTo(billed, 6);
     expect(r.quantities.referenceDemand).toBeCloseTo(reference, 6);

@@ -7,7 +7,7 @@ describe('leading reactive energy charge', () => {
   it.each([
     ['any-load', 800 * 0.02, 'domain.md s.2 clause 6: charged per leading kvarh'],
     ['zero-kw-only', 300 * 0.02, 'domain.md s.2 clause 6: only when kW is zero'],
-  ] as const)('%s', (condition, amount) => {
+  ] as const)('%s', (condition, amount, _source) => {
     const r = runRule({ type: 'leading-kvarh', id: 'ld', ratePerKvarh: 0.02, condition }, agg);
     expect(r.amount).toBeCloseTo(amount, 9);
     expect(r.explanation).toContain(`= $${amount.toFixed(2)}.`);

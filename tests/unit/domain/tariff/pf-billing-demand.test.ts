@@ -34,7 +34,7 @@ describe('PF-adjusted billing demand: formula variants', () => {
     ['per point rounded down', { formula: 'per-point', pointRounding: 'down' }, 0.873, 1.02, 'domain.md s.2 clause 1: 2.7 points rounded down = 2'],
     ['per point to nearest', { formula: 'per-point', pointRounding: 'nearest' }, 0.874, 1.03, 'domain.md s.2 clause 1: 2.6 points to nearest = 3'],
     ['per point exact', { formula: 'per-point', pointRounding: 'exact' }, 0.875, 1.025, 'domain.md s.2 clause 1: 2.5 points unrounded'],
-  ])('%s', (_name, extra, pf, factor) => {
+  ])('%s', (_name, extra, pf, factor, _source) => {
     const r = runRule(rule(extra), periodAt(pf));
     expect(r.quantities.factor).toBeCloseTo(factor, 9);
     expect(r.quantities.billingDemandKw).toBeCloseTo(100 * factor, 9);
@@ -55,7 +55,7 @@ describe('PF-adjusted billing demand: edges', () => {
     [{ decimals: 2, mode: 'nearest' }, 0, 'PF 0.8951 rounds to 0.90: no charge (common practice: tariffs compare PF to two decimals)'],
     [{ decimals: 2, mode: 'down' }, 100 * (0.9 / 0.89 - 1) * 10, 'PF 0.8951 truncated to 0.89: charged at 0.89'],
     [{ decimals: 3, mode: 'nearest' }, 100 * (0.9 / 0.895 - 1) * 10, 'PF 0.8951 to three decimals is 0.895'],
-  ] as const)('PF rounding %j', (pfRounding, amount) => {
+  ] as const)('PF rounding %j', (pfRounding, amount, _source) => {
     expect(runRule(rule({ pfRounding }), periodAt(0.8951)).amount).toBeCloseTo(amount, 9);
   });
 
@@ -79,7 +79,7 @@ describe('PF-adjusted billing demand: edges', () => {
     ['lagging', 10_000 / Math.hypot(10_000, 4_000), 'domain.md s.1: lagging only ignores leading kvarh'],
     ['net', 10_000 / Math.hypot(10_000, 2_000), 'domain.md s.1: net = lagging - leading'],
     ['absolute', 10_000 / Math.hypot(10_000, 6_000), 'domain.md s.1: absolute = lagging + leading'],
-  ] as const)('leading kvarh on the %s basis', (kvarhBasis, pf) => {
+  ] as const)('leading kvarh on the %s basis', (kvarhBasis, pf, _source) => {
     const agg = aggregateOf({ kwh: 10_000, kvarhLag: 4_000, kvarhLead: 2_000, peakKw: 100 });
     const r = runRule(rule({ kvarhBasis, targetPf: 0.99 }), agg);
     expect(r.quantities.pf).toBeCloseTo(pf, 12);

@@ -23,7 +23,7 @@ describe('PF percentage adjustment in cumulative tiers', () => {
     [0.873, 'nearest', 5.5, '7.7 steps to nearest = 8'],
     [0.873, 'exact', 5.2, '7.7 steps: 5 x 0.5 % + 2.7 x 1 %'],
     [0.8, 'up', 12.5, '15 steps: 5 x 0.5 % + 10 x 1 %'],
-  ] as const)('PF %s, steps %s -> %s %%', (pf, stepRounding, percent) => {
+  ] as const)('PF %s, steps %s -> %s percent', (pf, stepRounding, percent, _source) => {
     const r = runRule(tiered({ stepRounding }), at(pf));
     // Base: 100,000 kWh x $0.10 = $10,000.
     expect(r.quantities.surchargePct ?? 0).toBeCloseTo(percent, 9);
@@ -40,7 +40,7 @@ describe('PF percentage adjustment in cumulative tiers', () => {
     [0.97, 1, '2 steps above 0.95 x 0.5 % (credit shape from domain.md s.2 clause 5)'],
     [0.999, 1.5, '4.9 steps rounded down to 4 = 2 %, capped at 1.5 %'],
     [0.95, 0, 'no credit at the level itself'],
-  ])('credit at PF %s -> %s %%', (pf, percent) => {
+  ])('credit at PF %s -> %s percent', (pf, percent) => {
     const r = runRule(tiered({ credit: { abovePf: 0.95, pctPerStep: 0.5, maxPct: 1.5 } }), at(pf));
     expect(r.amount).toBeCloseTo(-100 * percent, 6);
     if (percent > 0) expect(r.status).toBe('credit');
@@ -49,7 +49,7 @@ describe('PF percentage adjustment in cumulative tiers', () => {
   it.each([
     [{ source: 'demand-rate', ratePerKw: 12 }, undefined, 4800, 'base = 400 kW x $12'],
     [{ source: 'entered-amount', field: 'totalBill' }, { totalBill: 20_000 }, 20_000, 'base = the bill total entered'],
-  ] as const)('base %j', (base, amounts, baseAmount) => {
+  ] as const)('base %j', (base, amounts, baseAmount, _source) => {
     const r = runRule(tiered({ base }), at(0.93), [], amounts);
     expect(r.amount).toBeCloseTo(baseAmount * 0.01, 9);
   });

@@ -67,7 +67,9 @@ export function aggregate(plan: AggregationPlan, correction: ReactiveCorrection 
     const lag = Math.max(lag0 - c, 0);
     const lead = kvarhLead[i] + Math.max(c - lag0, 0);
     const net = lag - lead;
-    running += net;
+    const e = kwh[i];
+    // Export intervals are reported apart: their kvar stays out of demand readings too.
+    if (e >= -ZERO_KWH) running += net;
     prefix[i + 1] = running;
     const slot = intervalSlot[i];
     if (slot !== current) {
@@ -83,7 +85,6 @@ export function aggregate(plan: AggregationPlan, correction: ReactiveCorrection 
       sKwh = 0; sLag = 0; sLead = 0; sLeadZero = 0; nImport = 0; nZero = 0; nExport = 0; sKwhExport = 0; nLeading = 0; nMissing = 0; worst = Infinity; sLagExport = 0; sLeadExport = 0;
     }
     if (slot < 0) continue;
-    const e = kwh[i];
     if ((flags[i] & MISSING) !== 0) nMissing++;
     if (e > ZERO_KWH) {
       sKwh += e; sLag += lag; sLead += lead; nImport++;

@@ -83,6 +83,14 @@ describe('interval statistics and counts', () => {
     expect(m15.minIntervalPfSense).toBe('lag');
     expect(m15.pfAvgNetSense).toBe('lag');
   });
+  it('export intervals stay out of kvar and kVA maxima (domain.md s.1: export reported apart)', () => {
+    const s = seriesFrom(T0, 15, [[25, 10], [-50, 200], [20, 5]]);
+    const [m] = computeMetrics(s, day);
+    expect(m.maxKvar).toBeCloseTo(40, 9);
+    expect(m.peakKva).toBeCloseTo(Math.hypot(100, 40), 9);
+    expect(m.kvarhLagExport).toBe(200);
+  });
+
   it('an export-only period has no PF rather than a nonsense one', () => {
     const exportOnly = seriesFrom(T0, 15, [[-5, 2], [-6, -1]]);
     const [m] = computeMetrics(exportOnly, day);

@@ -9,6 +9,7 @@ import { SiteCreateSchema, SiteSchema, SiteUpdateSchema } from '../schemas/site'
 import { TariffDtoSchema, TariffVersionSchema } from '../schemas/tariff';
 import { FindingsQuerySchema, FindingsSchema } from '../schemas/findings';
 import { ImportSchema, MeterSchema } from '../meter-data/dto';
+import { PreviewRequestSchema } from '../meter-data/preview';
 import { InvitationSchema, InviteSchema, MemberRoleSchema, MemberSchema, MeSchema, WorkspaceCreateSchema, WorkspaceSchema, WorkspaceSwitchSchema } from '../schemas/workspace';
 
 type Method = 'get' | 'post' | 'put' | 'patch' | 'delete';
@@ -66,6 +67,7 @@ export const ROUTES: RouteDoc[] = [
   { method: 'get', path: '/api/sites/{siteId}/meter-data', summary: 'Meters (with saved import profiles) and the import history', tag: 'Meter data', permission: 'site:view', params: siteParams, ok: { status: 200, schema: z.object({ meters: z.array(MeterSchema), imports: z.array(ImportSchema) }), description: 'Meters and imports' }, errors: [401, 404] },
   { method: 'post', path: '/api/sites/{siteId}/meter-data', summary: 'Upload and import a meter export, all or nothing', tag: 'Meter data', permission: 'meter:upload', params: siteParams, query: z.object({ importId: z.string().optional().meta({ description: 'Client-chosen id (imp_...) to poll progress while the upload runs' }) }), multipart: meterUpload, ok: { status: 201, schema: z.object({ import: ImportSchema }), description: 'Imported, with the data-quality report' }, errors: [400, 401, 403, 404, 409, 413, 415, 422] },
   { method: 'get', path: '/api/sites/{siteId}/meter-data/imports/{importId}', summary: 'One import: progress, data-quality report, problems', tag: 'Meter data', permission: 'site:view', params: siteParams.extend({ importId: z.string() }), ok: { status: 200, schema: z.object({ import: ImportSchema }), description: 'Import' }, errors: [401, 404] },
+  { method: 'post', path: '/api/sites/{siteId}/meter-data/preview', summary: 'Mapping step: propose a mapping from the head of a file and show the first rows as parsed (writes nothing)', tag: 'Meter data', permission: 'meter:upload', params: siteParams, body: PreviewRequestSchema, ok: { status: 200, schema: z.object({ proposal: z.record(z.string(), z.unknown()).meta({ description: 'mapping (when complete), draft, choices with confidence, needs (statements the user must make, e.g. date order), columns, problems' }), parsed: z.record(z.string(), z.unknown()).nullable().meta({ description: 'first rows read with the mapping: row, meterId, start, kwh, kvarhLag, kvarhLead; or the problems' }) }), description: 'Proposal and preview' }, errors: [400, 401, 403, 404, 413] },
 ];
 
 const ERROR_TEXT: Record<number, string> = {

@@ -1,12 +1,13 @@
 /**
  * Local wall-clock readings -> UTC instants in an IANA zone (luxon's zone data).
- * luxon is asked once per wall hour and the answer cached, so a year of 1-minute rows
- * costs about 9,000 zone look-ups, not 525,600.
+ * The zone's offset changes over a year-long window are found once (about 1,500 luxon
+ * look-ups, the engine's `offsetSegments`); each row is then resolved from those
+ * segments without calling luxon.
  */
 import { IANAZone } from 'luxon';
+import { offsetSegments } from '../domain/series/zone-offsets';
 
-const HOUR_MS = 3_600_000;
-const NEAR_MS = 14 * HOUR_MS;
+const DAY_MS = 86_400_000;
 
 export type Resolution =
   /** The reading exists once. */
@@ -18,9 +19,12 @@ export type Resolution =
 
 export class ZoneResolver {
   private readonly zone: IANAZone;
-  private readonly cache = new Map<number, number>();
-  private lastHour = Number.NaN;
-  private lastOffset = Number.NaN;
+  /** Offset segments over a window of instants: `segStart[k]` is where `segOffset[k]` begins. */
+  private segStart: number[] = [];
+  private segOffset: number[] = [];
+  private winFrom = Number.POSITIVE_INFINITY;
+  private winTo = Number.NEGATIVE_INFINITY;
+  private cursor = 0;
   private readonly standardByYear = new Map<number, number>();
 
   /** Throws RangeError on an unknown zone; check with `isKnownZone` first. */
@@ -31,45 +35,55 @@ export class ZoneResolver {
 
   /** Offset in minutes at an instant. */
   offsetAt(ms: number): number {
-    return this.zone.offset(ms);
+    this.cover(ms);
+    return this.segOffset[this.segmentOf(ms)];
+  }
+
+  /** Loads the offset segments of a window of about a year around `ms` when `ms` is outside the current one. */
+  private cover(ms: number): void {
+    if (ms >= this.winFrom && ms <= this.winTo) return;
+    const from = ms - 3 * DAY_MS;
+    const to = ms + 370 * DAY_MS;
+    const seg = offsetSegments(this.zoneName, from, to);
+    this.segStart = seg.startMs;
+    this.segOffset = seg.offsetMin;
+    this.winFrom = from + DAY_MS;
+    this.winTo = to - DAY_MS;
+    this.cursor = 0;
+  }
+
+  /** Index of the segment holding instant `ms` (the cursor makes ordered look-ups O(1)). */
+  private segmentOf(ms: number): number {
+    const st = this.segStart;
+    let k = this.cursor;
+    while (k + 1 < st.length && st[k + 1] <= ms) k++;
+    while (k > 0 && st[k] > ms) k--;
+    this.cursor = k;
+    return k;
   }
 
   /**
-   * Resolves a wall reading. Fast path: when the zone keeps one offset for 14 hours either
-   * side of the hour, the reading is unique. Otherwise each candidate offset is tried.
+   * Resolves a wall reading: each neighbouring segment's offset is tried and kept when the
+   * instant it gives lies inside that segment.
    */
   resolve(wall: number): Resolution {
-    const hour = Math.floor(wall / HOUR_MS);
-    let o: number;
-    if (hour === this.lastHour) o = this.lastOffset;
-    else {
-      const cached = this.cache.get(hour);
-      if (cached !== undefined) o = cached;
-      else {
-        const h = hour * HOUR_MS;
-        const a = this.zone.offset(h - NEAR_MS);
-        const b = this.zone.offset(h + NEAR_MS);
-        o = a === b && this.zone.offset(h) === a ? a : Number.NaN;
-        this.cache.set(hour, o);
+    this.cover(wall);
+    const k = this.segmentOf(wall - this.segOffset[this.cursor] * 60_000);
+    const st = this.segStart;
+    const off = this.segOffset;
+    let first = Number.NaN;
+    let second = Number.NaN;
+    for (let j = Math.max(0, k - 1); j <= Math.min(st.length - 1, k + 1); j++) {
+      const t = wall - off[j] * 60_000;
+      const end = j + 1 < st.length ? st[j + 1] : Number.POSITIVE_INFINITY;
+      if (t >= st[j] && t < end) {
+        if (first !== first) first = t;
+        else if (t !== first) second = t;
       }
-      this.lastHour = hour;
-      this.lastOffset = o;
     }
-    if (o === o) return { kind: 'unique', ms: wall - o * 60_000 };
-    return this.resolveNearChange(wall);
-  }
-
-  private resolveNearChange(wall: number): Resolution {
-    const offsets = new Set([this.zone.offset(wall - NEAR_MS), this.zone.offset(wall + NEAR_MS)]);
-    const found: number[] = [];
-    for (const off of offsets) {
-      const t = wall - off * 60_000;
-      if (this.zone.offset(t) === off && !found.includes(t)) found.push(t);
-    }
-    found.sort((x, y) => x - y);
-    if (found.length === 0) return { kind: 'skipped' };
-    if (found.length === 1) return { kind: 'unique', ms: found[0] };
-    return { kind: 'repeated', earlier: found[0], later: found[found.length - 1] };
+    if (first !== first) return { kind: 'skipped' };
+    if (second !== second) return { kind: 'unique', ms: first };
+    return first < second ? { kind: 'repeated', earlier: first, later: second } : { kind: 'repeated', earlier: second, later: first };
   }
 
   /** Standard-time offset (the smaller of January's and July's) for the year of a wall reading. */

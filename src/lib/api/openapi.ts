@@ -10,6 +10,8 @@ import { TariffDtoSchema, TariffVersionSchema } from '../schemas/tariff';
 import { FindingsQuerySchema, FindingsSchema } from '../schemas/findings';
 import { ImportSchema, MeterSchema } from '../meter-data/dto';
 import { PreviewRequestSchema } from '../meter-data/preview';
+import { BillSchema, ReconciliationSchema } from '../schemas/bill';
+import { BillDeterminantsSchema } from '../import/bills/bill-schema';
 import { InvitationSchema, InviteSchema, MemberRoleSchema, MemberSchema, MeSchema, WorkspaceCreateSchema, WorkspaceSchema, WorkspaceSwitchSchema } from '../schemas/workspace';
 
 type Method = 'get' | 'post' | 'put' | 'patch' | 'delete';
@@ -34,6 +36,8 @@ const meterUpload = z.object({
   mapping: z.string().meta({ description: 'The confirmed MeterMapping as JSON (see the mapping step)' }),
   replace: z.enum(['true', 'false']).optional().meta({ description: 'Overwrite data already imported in the same range (needed after a 409 overlap)' }),
 });
+const billParams = siteParams.extend({ billId: z.string() });
+const fileUpload = (what: string) => z.object({ file: z.string().meta({ format: 'binary', description: what }) });
 const tariffParams = siteParams.extend({ tariffId: z.string().meta({ description: 'Tariff version id' }) });
 const memberParams = z.object({ memberId: z.string() });
 const invitationParams = z.object({ invitationId: z.string() });
@@ -68,6 +72,13 @@ export const ROUTES: RouteDoc[] = [
   { method: 'post', path: '/api/sites/{siteId}/meter-data', summary: 'Upload and import a meter export, all or nothing', tag: 'Meter data', permission: 'meter:upload', params: siteParams, query: z.object({ importId: z.string().optional().meta({ description: 'Client-chosen id (imp_...) to poll progress while the upload runs' }) }), multipart: meterUpload, ok: { status: 201, schema: z.object({ import: ImportSchema }), description: 'Imported, with the data-quality report' }, errors: [400, 401, 403, 404, 409, 413, 415, 422] },
   { method: 'get', path: '/api/sites/{siteId}/meter-data/imports/{importId}', summary: 'One import: progress, data-quality report, problems', tag: 'Meter data', permission: 'site:view', params: siteParams.extend({ importId: z.string() }), ok: { status: 200, schema: z.object({ import: ImportSchema }), description: 'Import' }, errors: [401, 404] },
   { method: 'post', path: '/api/sites/{siteId}/meter-data/preview', summary: 'Mapping step: propose a mapping from the head of a file and show the first rows as parsed (writes nothing)', tag: 'Meter data', permission: 'meter:upload', params: siteParams, body: PreviewRequestSchema, ok: { status: 200, schema: z.object({ proposal: z.record(z.string(), z.unknown()).meta({ description: 'mapping (when complete), draft, choices with confidence, needs (statements the user must make, e.g. date order), columns, problems' }), parsed: z.record(z.string(), z.unknown()).nullable().meta({ description: 'first rows read with the mapping: row, meterId, start, kwh, kvarhLag, kvarhLead; or the problems' }) }), description: 'Proposal and preview' }, errors: [400, 401, 403, 404, 413] },
+  { method: 'get', path: '/api/sites/{siteId}/bills', summary: "The site's bills, oldest first", tag: 'Bills', permission: 'site:view', params: siteParams, ok: { status: 200, schema: z.object({ bills: z.array(BillSchema) }), description: 'Bills' }, errors: [401, 404] },
+  { method: 'post', path: '/api/sites/{siteId}/bills', summary: "Enter one bill's billed determinants", tag: 'Bills', permission: 'bill:upload', params: siteParams, body: BillDeterminantsSchema, ok: { status: 201, schema: z.object({ bill: BillSchema }), description: 'Added' }, errors: [400, 401, 403, 404, 409] },
+  { method: 'post', path: '/api/sites/{siteId}/bills/import', summary: 'Import a bill-history CSV, all rows or none', tag: 'Bills', permission: 'bill:upload', params: siteParams, multipart: fileUpload('Bill history CSV').extend({ mapping: z.string().meta({ description: 'BillMapping as JSON' }) }), ok: { status: 201, schema: z.object({ bills: z.array(BillSchema), warnings: z.array(z.object({ code: z.string(), row: z.number(), message: z.string() })) }), description: 'Imported' }, errors: [400, 401, 403, 404, 409, 413, 415, 422] },
+  { method: 'delete', path: '/api/sites/{siteId}/bills/{billId}', summary: 'Delete a bill', tag: 'Bills', permission: 'bill:upload', params: billParams, ok: { status: 204, description: 'Deleted' }, errors: [401, 403, 404] },
+  { method: 'get', path: '/api/sites/{siteId}/bills/{billId}/document', summary: 'The bill document (PDF, PNG or JPEG); ?download=1 to save it', tag: 'Bills', permission: 'site:view', params: billParams, ok: { status: 200, description: 'The file' }, errors: [401, 404] },
+  { method: 'post', path: '/api/sites/{siteId}/bills/{billId}/document', summary: 'Attach the bill document (PDF, PNG or JPEG by content, 10 MB)', tag: 'Bills', permission: 'bill:upload', params: billParams, multipart: fileUpload('PDF, PNG or JPEG'), ok: { status: 201, schema: z.object({ document: z.object({ fileName: z.string(), contentType: z.string(), bytes: z.number() }) }), description: 'Attached' }, errors: [400, 401, 403, 404, 413, 415] },
+  { method: 'get', path: '/api/sites/{siteId}/reconciliation', summary: 'Bills against the interval data and tariff: differences, disputable amount, multiplier check', tag: 'Bills', permission: 'site:view', params: siteParams, ok: { status: 200, schema: ReconciliationSchema, description: 'Reconciliation' }, errors: [401, 404, 422] },
 ];
 
 const ERROR_TEXT: Record<number, string> = {

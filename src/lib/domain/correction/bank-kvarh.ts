@@ -43,24 +43,24 @@ export function switchedBankKvarhInto(series: IntervalSeries, bank: SwitchedBank
       const q = kvarhLag[i] - kvarhLead[i];
       const need = (q - e * tanTarget) * toPower;
       const room = (q + e * tanLimit) * toPower;
-      if (need > EPS && room > EPS) {
-        if (equal) {
-          k = Math.ceil(need * invStep - EPS);
-          const kMax = Math.floor(room * invStep + EPS);
-          if (k > kMax) k = kMax;
-          if (k > n) k = n;
-        } else {
-          const qk = q * toPower;
-          const target = e * toPower * tanTarget + EPS;
-          while (k < n && qk - cum[k] > target && cum[k + 1] <= room + EPS) k++;
-        }
+      if (equal) {
+        // Steps to reach the target, capped by the steps that stay within the leading
+        // limit and by the bank; min/max of whole numbers via |a - b| to avoid
+        // data-dependent branches (the controller's decision flips all day long).
+        const kTarget = Math.ceil(need * invStep - EPS);
+        const kRoom = Math.floor(room * invStep + EPS);
+        k = (kTarget + kRoom - Math.abs(kTarget - kRoom)) * 0.5;
+        k = (k + n - Math.abs(k - n)) * 0.5;
+        k = (k + Math.abs(k)) * 0.5;
+      } else if (need > EPS && room > EPS) {
+        const qk = q * toPower;
+        const target = e * toPower * tanTarget + EPS;
+        while (k < n && qk - cum[k] > target && cum[k + 1] <= room + EPS) k++;
       }
     }
     out[i] = equal ? k * stepKvarh : cum[k] * toEnergy;
-    if (k !== previous) {
-      switchings += k > previous ? k - previous : previous - k;
-      previous = k;
-    }
+    switchings += Math.abs(k - previous);
+    previous = k;
   }
   return switchings;
 }

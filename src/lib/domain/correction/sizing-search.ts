@@ -121,14 +121,14 @@ function leadingTotals(prep: PreparedTariff): { leadingHours: number; leadingKva
   const { plan } = prep;
   let intervals = 0;
   let kvarh = 0;
-  let worst = Number.POSITIVE_INFINITY;
+  let ratio = -1;
   for (let p = 0; p < plan.periods.length; p++) {
     const o = p * plan.windowCount * FIELD_COUNT;
     intervals += plan.acc[o + Field.leadingIntervals];
     kvarh += plan.acc[o + Field.kvarhLead];
-    worst = Math.min(worst, plan.acc[o + Field.worstLeadPf]);
+    if (plan.acc[o + Field.leadingIntervals] > 0) ratio = Math.max(ratio, plan.acc[o + Field.maxLeadRatio]);
   }
-  return { leadingHours: (intervals * plan.series.intervalMinutes) / 60, leadingKvarh: kvarh, worstLeadPf: Number.isFinite(worst) ? worst : null };
+  return { leadingHours: (intervals * plan.series.intervalMinutes) / 60, leadingKvarh: kvarh, worstLeadPf: ratio >= 0 ? 1 / Math.sqrt(1 + ratio * ratio) : null };
 }
 
 function argBest<T>(items: readonly (T | null)[], key: (t: T) => number, better: (a: number, b: number) => boolean): number | null {

@@ -14,7 +14,8 @@ export const Field = {
   kwhExport: 7,
   leadingIntervals: 8,
   reactiveMissing: 9,
-  worstLeadPf: 10,
+  /** Highest -kvar/kW of a leading import interval; its PF is 1 / sqrt(1 + ratio^2). */
+  maxLeadRatio: 10,
   maxKvar: 11,
   maxKvarBlock: 12,
   maxKvaSq: 13,

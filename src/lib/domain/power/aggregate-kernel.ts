@@ -27,7 +27,7 @@ const EXPORT_N = 6;
 const KWH_EXPORT = 7;
 const LEADING_N = 8;
 const MISSING_N = 9;
-const WORST_LEAD_PF = 10;
+const MAX_LEAD_RATIO = 10;
 const MAX_KVAR = 11;
 const MAX_KVAR_BLOCK = 12;
 const MAX_KVA_SQ = 13;
@@ -37,7 +37,7 @@ const LAG_EXPORT = 16;
 const LEAD_EXPORT = 17;
 
 /** Kernel field offsets, exported so a test can check them against `Field`. */
-export const KERNEL_FIELDS = { kwh: KWH, kvarhLag: LAG, kvarhLead: LEAD, kvarhLeadZeroKw: LEAD_ZERO, importIntervals: IMPORT_N, zeroKwIntervals: ZERO_N, exportIntervals: EXPORT_N, kwhExport: KWH_EXPORT, leadingIntervals: LEADING_N, reactiveMissing: MISSING_N, worstLeadPf: WORST_LEAD_PF, maxKvar: MAX_KVAR, maxKvarBlock: MAX_KVAR_BLOCK, maxKvaSq: MAX_KVA_SQ, maxKvaBlock: MAX_KVA_BLOCK, coincidentKvar: COINCIDENT_KVAR, kvarhLagExport: LAG_EXPORT, kvarhLeadExport: LEAD_EXPORT } as const;
+export const KERNEL_FIELDS = { kwh: KWH, kvarhLag: LAG, kvarhLead: LEAD, kvarhLeadZeroKw: LEAD_ZERO, importIntervals: IMPORT_N, zeroKwIntervals: ZERO_N, exportIntervals: EXPORT_N, kwhExport: KWH_EXPORT, leadingIntervals: LEADING_N, reactiveMissing: MISSING_N, maxLeadRatio: MAX_LEAD_RATIO, maxKvar: MAX_KVAR, maxKvarBlock: MAX_KVAR_BLOCK, maxKvaSq: MAX_KVA_SQ, maxKvaBlock: MAX_KVA_BLOCK, coincidentKvar: COINCIDENT_KVAR, kvarhLagExport: LAG_EXPORT, kvarhLeadExport: LEAD_EXPORT } as const;
 
 /**
  * One pass over the intervals and one over the demand readings, filling `plan.acc`
@@ -48,29 +48,66 @@ export const KERNEL_FIELDS = { kwh: KWH, kvarhLag: LAG, kvarhLead: LEAD, kvarhLe
  * to its leading kvarh, so a zero correction reproduces the meter's registers.
  */
 export function aggregate(plan: AggregationPlan, correction: ReactiveCorrection = NONE): Float64Array {
-  const { series, prefix, intervalSlot, patternAcc } = plan;
+  const { series, prefix, intervalSlot, patternAcc, blocks, blockSlot, peakBlockFlag, blockKvar } = plan;
   const { kwh, kvarhLag, kvarhLead, flags } = series;
   const n = series.length;
   resetAccumulator(patternAcc);
   const perInterval = correction.kind === 'per-interval' ? correction.kvarh : null;
   const constant = correction.kind === 'constant' ? correction.kvarh : 0;
+  // Block demand partitions the intervals, so readings are closed inside this loop;
+  // rolling demand overlaps, so it keeps prefix sums for a second pass.
+  const fused = blocks.partition;
+  const toKw = 60 / blocks.windowMinutes;
+  const { end: blockEnd, kw: blockKw } = blocks;
+  let b = 0;
+  let bEnd = blocks.count > 0 ? blockEnd[0] : -1;
+  let blockSum = 0;
+  let bCur = -1;
+  let maxQ = -Infinity, maxQb = -1, maxSq = -1, maxSqb = -1;
   let running = 0;
-  prefix[0] = 0;
+  if (!fused) prefix[0] = 0;
   // Sums run in locals while the slot (period, window pattern) stays the same, which
   // holds for hours at a time, and are added to the slot's record when it changes.
   let current = -1;
-  let sKwh = 0, sLag = 0, sLead = 0, sLeadZero = 0, nImport = 0, nZero = 0, nExport = 0, sKwhExport = 0, nLeading = 0, nMissing = 0, worst = Infinity, sLagExport = 0, sLeadExport = 0;
+  let sKwh = 0, sLag = 0, sLead = 0, sLeadZero = 0, nImport = 0, nZero = 0, nExport = 0, sKwhExport = 0, nLeading = 0, nMissing = 0, leadRatio = 0, sLagExport = 0, sLeadExport = 0;
   for (let i = 0; i < n; i++) {
     const lag0 = kvarhLag[i];
     const c = perInterval !== null ? perInterval[i] : constant;
-    // Branch-free split: the lag/lead crossing is data-dependent and mispredicts.
-    const lag = Math.max(lag0 - c, 0);
-    const lead = kvarhLead[i] + Math.max(c - lag0, 0);
+    // Branch-free split: the lag/lead crossing is data-dependent and mispredicts, and
+    // Math.max is slow in V8; (d + |d|) / 2 is max(d, 0) exactly.
+    const d = lag0 - c;
+    const ad = Math.abs(d);
+    const lag = (d + ad) * 0.5;
+    const lead = kvarhLead[i] + (ad - d) * 0.5;
     const net = lag - lead;
     const e = kwh[i];
     // Export intervals are reported apart: their kvar stays out of demand readings too.
-    if (e >= -ZERO_KWH) running += net;
-    prefix[i + 1] = running;
+    const demandNet = e >= -ZERO_KWH ? net : 0;
+    if (fused) {
+      blockSum += demandNet;
+      if (i + 1 === bEnd) {
+        const bs = blockSlot[b];
+        if (bs !== bCur) {
+          if (bCur >= 0) mergeMaxima(patternAcc, bCur * FIELD_COUNT, maxQ, maxQb, maxSq, maxSqb);
+          bCur = bs;
+          maxQ = -Infinity; maxQb = -1; maxSq = -1; maxSqb = -1;
+        }
+        const q = blockSum * toKw;
+        if (bs >= 0) {
+          const k = blockKw[b];
+          const sq = k * k + q * q;
+          if (q > maxQ) { maxQ = q; maxQb = b; }
+          if (sq > maxSq) { maxSq = sq; maxSqb = b; }
+        }
+        if (peakBlockFlag[b] === 1) blockKvar[b] = q;
+        blockSum = 0;
+        b++;
+        bEnd = b < blocks.count ? blockEnd[b] : -1;
+      }
+    } else {
+      running += demandNet;
+      prefix[i + 1] = running;
+    }
     const slot = intervalSlot[i];
     if (slot !== current) {
       if (current >= 0) {
@@ -78,21 +115,24 @@ export function aggregate(plan: AggregationPlan, correction: ReactiveCorrection 
         patternAcc[o + KWH] += sKwh; patternAcc[o + LAG] += sLag; patternAcc[o + LEAD] += sLead; patternAcc[o + LEAD_ZERO] += sLeadZero;
         patternAcc[o + IMPORT_N] += nImport; patternAcc[o + ZERO_N] += nZero; patternAcc[o + EXPORT_N] += nExport; patternAcc[o + KWH_EXPORT] += sKwhExport;
         patternAcc[o + LEADING_N] += nLeading; patternAcc[o + MISSING_N] += nMissing;
-        if (worst < patternAcc[o + WORST_LEAD_PF]) patternAcc[o + WORST_LEAD_PF] = worst;
+        if (leadRatio > patternAcc[o + MAX_LEAD_RATIO]) patternAcc[o + MAX_LEAD_RATIO] = leadRatio;
         patternAcc[o + LAG_EXPORT] += sLagExport; patternAcc[o + LEAD_EXPORT] += sLeadExport;
       }
       current = slot;
-      sKwh = 0; sLag = 0; sLead = 0; sLeadZero = 0; nImport = 0; nZero = 0; nExport = 0; sKwhExport = 0; nLeading = 0; nMissing = 0; worst = Infinity; sLagExport = 0; sLeadExport = 0;
+      sKwh = 0; sLag = 0; sLead = 0; sLeadZero = 0; nImport = 0; nZero = 0; nExport = 0; sKwhExport = 0; nLeading = 0; nMissing = 0; leadRatio = 0; sLagExport = 0; sLeadExport = 0;
     }
     if (slot < 0) continue;
     if ((flags[i] & MISSING) !== 0) nMissing++;
     if (e > ZERO_KWH) {
       sKwh += e; sLag += lag; sLead += lead; nImport++;
-      if (net < 0) {
-        nLeading++;
-        const pf = e / Math.sqrt(e * e + net * net);
-        if (pf < worst) worst = pf;
-      }
+      // The most leading interval is the one with the highest -kvar/kW; tracking the
+      // ratio (0 when lagging) avoids a sqrt and an unpredictable branch per interval.
+      // m is 2|Q| when leading, else 0; m / (m + 1e-300) is then exactly 1 or 0, a
+      // count without a data-dependent branch (kvarh never comes near 1e-284).
+      const m = Math.abs(net) - net;
+      nLeading += m / (m + 1e-300);
+      const r = m / (2 * e);
+      if (r > leadRatio) leadRatio = r;
     } else if (e < -ZERO_KWH) {
       nExport++; sKwhExport -= e; sLagExport += lag; sLeadExport += lead;
     } else {
@@ -105,17 +145,21 @@ export function aggregate(plan: AggregationPlan, correction: ReactiveCorrection 
     patternAcc[o + KWH] += sKwh; patternAcc[o + LAG] += sLag; patternAcc[o + LEAD] += sLead; patternAcc[o + LEAD_ZERO] += sLeadZero;
     patternAcc[o + IMPORT_N] += nImport; patternAcc[o + ZERO_N] += nZero; patternAcc[o + EXPORT_N] += nExport; patternAcc[o + KWH_EXPORT] += sKwhExport;
     patternAcc[o + LEADING_N] += nLeading; patternAcc[o + MISSING_N] += nMissing;
-    if (worst < patternAcc[o + WORST_LEAD_PF]) patternAcc[o + WORST_LEAD_PF] = worst;
+    if (leadRatio > patternAcc[o + MAX_LEAD_RATIO]) patternAcc[o + MAX_LEAD_RATIO] = leadRatio;
     patternAcc[o + LAG_EXPORT] += sLagExport; patternAcc[o + LEAD_EXPORT] += sLeadExport;
   }
-  scanDemandReadings(plan);
+  if (fused) {
+    if (bCur >= 0) mergeMaxima(patternAcc, bCur * FIELD_COUNT, maxQ, maxQb, maxSq, maxSqb);
+  } else {
+    scanRollingReadings(plan);
+  }
   combinePatterns(plan);
   return plan.acc;
 }
 
-/** Highest kvar and kVA reading per (period, pattern), run-length in locals like the interval pass. */
-function scanDemandReadings(plan: AggregationPlan): void {
-  const { patternAcc: acc, prefix, blocks, blockSlot } = plan;
+/** Rolling demand: highest kvar and kVA reading per (period, pattern) from prefix sums. */
+function scanRollingReadings(plan: AggregationPlan): void {
+  const { patternAcc: acc, prefix, blocks, blockSlot, peakBlockFlag, blockKvar } = plan;
   const toKw = 60 / blocks.windowMinutes;
   const { first, end, kw } = blocks;
   let current = -1;
@@ -129,6 +173,7 @@ function scanDemandReadings(plan: AggregationPlan): void {
     }
     if (slot < 0) continue;
     const q = (prefix[end[b]] - prefix[first[b]]) * toKw;
+    if (peakBlockFlag[b] === 1) blockKvar[b] = q;
     const k = kw[b];
     const sq = k * k + q * q;
     if (q > maxQ) {
@@ -159,7 +204,7 @@ const SUMMED = [KWH, LAG, LEAD, LEAD_ZERO, IMPORT_N, ZERO_N, EXPORT_N, KWH_EXPOR
 
 /** Folds (period, pattern) records into (period, window) records and adds the coincident kvar. */
 function combinePatterns(plan: AggregationPlan): void {
-  const { acc, patternAcc, patternBits, peakBlock, prefix, blocks, windowCount: W } = plan;
+  const { acc, patternAcc, patternBits, peakBlock, blockKvar, windowCount: W } = plan;
   const P = patternBits.length;
   resetAccumulator(acc);
   const periods = plan.periods.length;
@@ -171,7 +216,7 @@ function combinePatterns(plan: AggregationPlan): void {
         if ((bits & (1 << w)) === 0) continue;
         const dst = (p * W + w) * FIELD_COUNT;
         for (const f of SUMMED) acc[dst + f] += patternAcc[src + f];
-        if (patternAcc[src + WORST_LEAD_PF] < acc[dst + WORST_LEAD_PF]) acc[dst + WORST_LEAD_PF] = patternAcc[src + WORST_LEAD_PF];
+        if (patternAcc[src + MAX_LEAD_RATIO] > acc[dst + MAX_LEAD_RATIO]) acc[dst + MAX_LEAD_RATIO] = patternAcc[src + MAX_LEAD_RATIO];
         const qb = patternAcc[src + MAX_KVAR_BLOCK];
         if (qb >= 0 && (patternAcc[src + MAX_KVAR] > acc[dst + MAX_KVAR] || (patternAcc[src + MAX_KVAR] === acc[dst + MAX_KVAR] && qb < acc[dst + MAX_KVAR_BLOCK]))) {
           acc[dst + MAX_KVAR] = patternAcc[src + MAX_KVAR];
@@ -185,18 +230,15 @@ function combinePatterns(plan: AggregationPlan): void {
       }
     }
   }
-  const toKw = 60 / blocks.windowMinutes;
   for (let slot = 0; slot < peakBlock.length; slot++) {
     const b = peakBlock[slot];
-    if (b < 0) continue;
-    acc[slot * FIELD_COUNT + COINCIDENT_KVAR] = (prefix[blocks.end[b]] - prefix[blocks.first[b]]) * toKw;
+    if (b >= 0) acc[slot * FIELD_COUNT + COINCIDENT_KVAR] = blockKvar[b];
   }
 }
 
 function resetAccumulator(acc: Float64Array): void {
   acc.fill(0);
   for (let o = 0; o < acc.length; o += FIELD_COUNT) {
-    acc[o + WORST_LEAD_PF] = Number.POSITIVE_INFINITY;
     acc[o + MAX_KVAR] = Number.NEGATIVE_INFINITY;
     acc[o + MAX_KVAR_BLOCK] = -1;
     acc[o + MAX_KVA_SQ] = -1;

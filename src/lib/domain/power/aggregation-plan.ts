@@ -43,7 +43,11 @@ export interface AggregationPlan {
   readonly peakBlock: Int32Array;
   /** Scratch: per (period, pattern) sums, FIELD_COUNT numbers each. */
   readonly patternAcc: Float64Array;
-  /** Scratch: prefix sums of corrected net kvarh, length n + 1. */
+  /** 1 for demand readings that are the kW peak of some (period, window). */
+  readonly peakBlockFlag: Uint8Array;
+  /** Scratch: net kvar of each peak reading under the current correction. */
+  readonly blockKvar: Float64Array;
+  /** Scratch for rolling demand: prefix sums of corrected net kvarh, length n + 1 (empty otherwise). */
   readonly prefix: Float64Array;
   /** Scratch accumulator, FIELD_COUNT numbers per (period, window). */
   readonly acc: Float64Array;
@@ -119,7 +123,15 @@ export function createAggregationPlan(series: IntervalSeries, periods: readonly 
     blockSlot,
     peakBlock,
     patternAcc: new Float64Array(periods.length * P * FIELD_COUNT),
-    prefix: new Float64Array(n + 1),
+    peakBlockFlag: flagPeaks(peakBlock, blocks.count),
+    blockKvar: new Float64Array(blocks.count),
+    prefix: new Float64Array(blocks.partition ? 0 : n + 1),
     acc: new Float64Array(periods.length * windowCount * FIELD_COUNT),
   };
+}
+
+function flagPeaks(peakBlock: Int32Array, count: number): Uint8Array {
+  const flags = new Uint8Array(count);
+  for (const b of peakBlock) if (b >= 0) flags[b] = 1;
+  return flags;
 }

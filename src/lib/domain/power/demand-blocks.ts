@@ -20,6 +20,8 @@ export interface DemandBlocks {
   anchor: Int32Array;
   /** Import demand of the reading, kW (missing intervals count as zero). */
   kw: Float64Array;
+  /** True when every interval is in exactly one reading, in order (block demand). */
+  partition: boolean;
 }
 
 /** Checks that the demand window is a whole multiple of the meter interval. */
@@ -61,7 +63,7 @@ function clockBlocks(series: IntervalSeries, cal: LocalCalendar, windowMinutes: 
     if (e > 0) kw[count - 1] += e * toKw;
   }
   if (count > 0) end[count - 1] = n;
-  return { windowMinutes, method: 'block', count, first: first.slice(0, count), end: end.slice(0, count), anchor: first.slice(0, count), kw: kw.slice(0, count) };
+  return { windowMinutes, method: 'block', count, first: first.slice(0, count), end: end.slice(0, count), anchor: first.slice(0, count), kw: kw.slice(0, count), partition: true };
 }
 
 function rollingBlocks(series: IntervalSeries, windowMinutes: number, method: DemandMethod): DemandBlocks {
@@ -88,5 +90,5 @@ function rollingBlocks(series: IntervalSeries, windowMinutes: number, method: De
     anchor[i] = i;
     kw[i] = Math.max(0, sum) * toKw;
   }
-  return { windowMinutes, method, count: n, first, end, anchor, kw };
+  return { windowMinutes, method, count: n, first, end, anchor, kw, partition: windowMinutes === series.intervalMinutes };
 }

@@ -65,7 +65,7 @@ export function readAggregate(plan: AggregationPlan, period: number, window: num
     kvarhLeadExport: a[o + Field.kvarhLeadExport],
     leadingIntervals: a[o + Field.leadingIntervals],
     leadingHours: (a[o + Field.leadingIntervals] * series.intervalMinutes) / 60,
-    worstLeadPf: Number.isFinite(a[o + Field.worstLeadPf]) ? a[o + Field.worstLeadPf] : null,
+    worstLeadPf: a[o + Field.leadingIntervals] > 0 ? 1 / Math.sqrt(1 + a[o + Field.maxLeadRatio] ** 2) : null,
     reactiveMissingIntervals: a[o + Field.reactiveMissing],
     peakKw: peakB >= 0 ? blocks.kw[peakB] : 0,
     peakAtMs: startOf(peakB),

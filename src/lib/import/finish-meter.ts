@@ -154,7 +154,7 @@ export function finishMeter(rows: MeterRows, set: ChannelSet, m: MeterMapping, p
     const d = stamps[i] - stamps[i - 1];
     if (d % stepMs !== 0) {
       mixed++;
-      problems.add('interval-mixed', lines[i], null, null, `${rowLabel(lines[i])}: this stamp is ${fmtMinutes(d)} after the one before, which does not fit the ${fmtMinutes(stepMs)} interval of meter ${rows.meterId}. Upload one interval length per file (split the file where the meter's interval changed).`);
+      problems.add('interval-mixed', lines[i], null, null, `${rowLabel(lines[i])}: this stamp is ${fmtMinutes(d)} after the one before, which does not fit the ${fmtMinutes(stepMs)} interval of meter ${rows.meterId}. Fix the stamp, or if the meter's interval changed here, split the file and upload one interval length per file.`);
       run = 0;
       continue;
     }

@@ -55,9 +55,9 @@ export class RowPlan {
     this.usable = this.resolveColumns(width, headerLine);
   }
 
-  private col(ref: ColumnRef, what: string, line: number, missing: string[]): number {
+  private col(ref: ColumnRef, what: string, line: number, missing: [string, ColumnRef][]): number {
     const i = this.header.find(ref);
-    if (i < 0) missing.push(`${what} ${refLabel(ref)}`);
+    if (i < 0) missing.push([what, ref]);
     else this.maxIndex = Math.max(this.maxIndex, i);
     return i;
   }
@@ -71,7 +71,7 @@ export class RowPlan {
       this.problems.add('single-column', line, null, cell, `${rowLabel(line)}: the ${m.hasHeader ? 'header' : 'first row'} splits into one column only with the ${DELIMITER_NAMES[m.delimiter]} delimiter.${hint}`);
       return false;
     }
-    const missing: string[] = [];
+    const missing: [string, ColumnRef][] = [];
     this.stampCol = this.col(m.timestamp.column, 'timestamp', line, missing);
     if (m.timestamp.timeColumn !== undefined) this.timeCol = this.col(m.timestamp.timeColumn, 'time', line, missing);
     if (m.meterIdColumn !== undefined) this.idCol = this.col(m.meterIdColumn, 'meter id', line, missing);
@@ -93,8 +93,8 @@ export class RowPlan {
     }
     if (missing.length) {
       const have = this.header.labels.map((l) => `"${l}"`).join(', ');
-      for (const what of missing) {
-        this.problems.add('column-missing', line, what, null, `${rowLabel(line)}: the ${what} column is not in the ${m.hasHeader ? 'header' : 'file'}. The file has ${have}. Correct the mapping or upload the export that has this column.`);
+      for (const [what, ref] of missing) {
+        this.problems.add('column-missing', line, String(ref), null, `${rowLabel(line)}: the ${what} column ${refLabel(ref)} is not in the ${m.hasHeader ? 'header' : 'file'}. The file has ${have}. Correct the mapping or upload the export that has this column.`);
       }
       return false;
     }

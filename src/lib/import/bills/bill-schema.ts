@@ -17,11 +17,11 @@ export const BillDeterminantsSchema = z
   .strictObject({
     periodStart: isoDate.describe('First day of the billing period (ISO 8601 date).'),
     periodEnd: isoDate.describe('Last day of the billing period, inclusive (ISO 8601 date); after the start.'),
-    kwh: z.number().finite().nonnegative().describe('Billed active energy for the period, kWh.'),
-    billedDemand: z.number().finite().nonnegative().optional().describe('Billed (billing) demand as printed, in `billedDemandUnit`.'),
+    kwh: z.number().finite().nonnegative('kWh cannot be negative.').describe('Billed active energy for the period, kWh.'),
+    billedDemand: z.number().finite().nonnegative('Billed demand cannot be negative.').optional().describe('Billed (billing) demand as printed, in `billedDemandUnit`.'),
     billedDemandUnit: z.enum(['kW', 'kVA']).optional().describe('Whether the billed demand is kW or kVA; required with `billedDemand`.'),
-    kvarh: z.number().finite().nonnegative().optional().describe('Billed reactive energy for the period, kvarh, when printed.'),
-    powerFactor: z.number().finite().gt(0).max(1).optional().describe('Power factor as printed, as a fraction between 0 and 1.'),
+    kvarh: z.number().finite().nonnegative('kvarh cannot be negative.').optional().describe('Billed reactive energy for the period, kvarh, when printed.'),
+    powerFactor: z.number().finite().gt(0, 'PF must be above 0.').max(1, 'PF must be at most 1 (a fraction such as 0.87).').optional().describe('Power factor as printed, as a fraction between 0 and 1.'),
     pfCharge: z.number().finite().optional().describe('Charge (positive) or credit (negative) the bill attributes to power factor, in `currency`.'),
     total: z.number().finite().optional().describe('Bill total, in `currency`.'),
     currency: z

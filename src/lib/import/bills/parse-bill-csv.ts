@@ -174,7 +174,7 @@ function readBill(fields: string[], line: number, header: HeaderIndex, idx: Map<
       const f = String(issue.path[0]) as Field;
       const i = idx.get(f);
       const value = i === undefined ? null : (fields[i] ?? null);
-      problems.add(f === 'periodEnd' ? 'period-invalid' : 'value-out-of-range', line, i === undefined ? f : header.labels[i], value, `${rowLabel(line)}: ${LABELS[f] ?? f}: ${issue.message}${f === 'powerFactor' && m.powerFactorScale === 'fraction' ? ' If the file prints PF in percent, set the PF scale to percent.' : ''}`);
+      problems.add(f === 'periodEnd' ? 'period-invalid' : 'value-out-of-range', line, i === undefined ? f : header.labels[i], value, `${rowLabel(line)}: ${issue.message}${f === 'powerFactor' && m.powerFactorScale === 'fraction' ? ' If the file prints PF in percent, set the PF scale to percent.' : ''}`);
     }
     return;
   }

@@ -86,9 +86,11 @@ describe('meter-data upload through the real server', () => {
     expect(r.status).toBe(status);
   });
 
-  it('refuses a binary file with 415 and Finance with 403', async () => {
+  it('refuses a binary file (422, file-binary) and Finance with 403', async () => {
     const png = new Uint8Array([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a, 0, 0, 0, 0]);
-    expect((await uploadFile(energy, path(), { name: 'photo.png', content: png, type: 'image/png' }, { mapping: JSON.stringify(mapping) })).status).toBe(415);
+    const r = await uploadFile(energy, path(), { name: 'photo.png', content: png, type: 'image/png' }, { mapping: JSON.stringify(mapping) });
+    expect(r.status).toBe(422);
+    expect(r.json.error.problems[0].code).toBe('file-binary');
     expect((await uploadFile(finance, path(), { name: 'a.csv', content: csv('2026-08-01T00:00:00Z', 4) }, { mapping: JSON.stringify(mapping) })).status).toBe(403);
   });
 });

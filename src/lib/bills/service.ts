@@ -13,7 +13,6 @@ import { sanitizeFileName } from '../files/names';
 import type { BillDeterminants } from '../import/bills/bill-schema';
 import { BillMappingSchema } from '../import/bills/bill-schema';
 import { parseBillCsv } from '../import/bills/parse-bill-csv';
-import { looksLikeText } from '../meter-data/receive';
 import { siteFindings } from '../findings/load';
 import { reconcile } from '../findings/reconcile';
 import type { SiteDto } from '../schemas/site';
@@ -50,10 +49,17 @@ export async function importBillCsv(ctx: Ctx, request: Request, maxBytes: number
       const e = fromZod(mapping.error);
       throw new ApiError(400, 'invalid_input', `mapping.${e.message}`, Object.fromEntries(Object.entries(e.fields ?? {}).map(([k, v]) => [`mapping.${k}`, v])));
     }
-    if (!looksLikeText(file.head)) throw new ApiError(415, 'not_csv', 'The bill history must be a CSV text file. Upload bill documents (PDF, PNG, JPEG) on each bill instead.');
     await commitToStore(file);
     const parsed = await parseBillCsv(openStored(file.sha256), mapping.data);
     if (!parsed.ok) throw new ApiError(422, 'invalid_file', `${parsed.totalProblems} problem(s) found; no bill was added. First: ${parsed.problems[0]?.message ?? ''}`, undefined, { problems: parsed.problems, totalProblems: parsed.totalProblems });
+    // Bills in one file must not overlap each other either: billing periods tile the year.
+    const sorted = [...parsed.bills].sort((a, b) => a.periodStart.localeCompare(b.periodStart));
+    for (let i = 1; i < sorted.length; i++) {
+      const prev = sorted[i - 1]!;
+      const cur = sorted[i]!;
+      if (cur.periodStart <= prev.periodEnd)
+        throw new ApiError(409, 'bill_overlap', `Row ${cur.row.toLocaleString('en-US')}: the billing period ${cur.periodStart} to ${cur.periodEnd} overlaps row ${prev.row.toLocaleString('en-US')} (${prev.periodStart} to ${prev.periodEnd}). Billing periods must not share days: correct the dates so each bill starts the day after the previous one ends.`, { periodStart: 'Overlaps another bill in the file.' }, { row: cur.row });
+    }
     const inserted = await db.transaction(async (tx) => {
       for (const b of parsed.bills) {
         const [clash] = await overlappingBills(tx, organizationId, site.id, b.periodStart, b.periodEnd);

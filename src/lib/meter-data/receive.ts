@@ -17,25 +17,11 @@ import { sanitizeFileName } from '../files/names';
 export const ImportIdSchema = z.string().regex(/^imp_[A-Za-z0-9_-]{8,40}$/, 'An import id looks like imp_ followed by 8 to 40 letters, digits, - or _.');
 export const newImportId = () => `imp_${randomBytes(12).toString('base64url')}`;
 
-/** Text files only: no NUL bytes in the first 64 KB, and valid UTF-8 (a BOM is fine). */
-export function looksLikeText(head: Buffer): boolean {
-  if (head.includes(0)) return false;
-  try {
-    new TextDecoder('utf-8', { fatal: true }).decode(head.subarray(0, Math.max(0, head.length - 4)));
-    return true;
-  } catch {
-    return false;
-  }
-}
-
 export async function receiveMeterUpload(db: Db, request: Request, ctx: { site: SiteDto; organizationId: string; userId: string; maxBytes: number; importId?: string }) {
   const upload = await readMultipart(request, { fileField: 'file', maxFileBytes: ctx.maxBytes });
   const file = upload.file;
   try {
-    if (!file || file.bytes === 0) {
-      if (file) await discardTemp(file);
-      throw new ApiError(file ? 422 : 400, file ? 'invalid_file' : 'invalid_input', file ? 'The file is empty. Export the meter data again and upload the CSV file.' : 'Attach the meter export in the "file" field.', file ? undefined : { file: 'Required.' }, file ? { problems: [{ row: null, column: null, value: null, code: 'file-empty', message: 'The file is empty.' }], totalProblems: 1 } : undefined);
-    }
+    if (!file) throw new ApiError(400, 'invalid_input', 'Attach the meter export in the "file" field.', { file: 'Required.' });
     let mappingJson: unknown;
     try {
       mappingJson = JSON.parse(upload.fields.mapping ?? '');
@@ -47,9 +33,6 @@ export async function receiveMeterUpload(db: Db, request: Request, ctx: { site: 
       const e = fromZod(mapping.error);
       const fields = Object.fromEntries(Object.entries(e.fields ?? {}).map(([k, v]) => [`mapping.${k}`, v]));
       throw new ApiError(400, 'invalid_input', `mapping.${e.message}`, fields);
-    }
-    if (!looksLikeText(file.head)) {
-      throw new ApiError(415, 'not_csv', `"${sanitizeFileName(file.fileName)}" is not a text file. Upload the meter export as CSV (comma, semicolon or tab separated text), not a spreadsheet or PDF.`);
     }
     const importId = ctx.importId ?? newImportId();
     const replace = upload.fields.replace === 'true';

@@ -48,7 +48,9 @@ function detectNewline(text: string): '\n' | '\r\n' | '\r' | null {
   const lf = text.indexOf('\n');
   if (lf > 0 && text.charCodeAt(lf - 1) === 13) return '\r\n';
   if (lf !== -1) return '\n';
-  return text.indexOf('\r') !== -1 ? '\r' : null;
+  const cr = text.indexOf('\r');
+  // A CR at the very end may be the first half of a CRLF split across chunks: wait.
+  return cr !== -1 && cr < text.length - 1 ? '\r' : null;
 }
 
 /**
@@ -74,7 +76,7 @@ export async function readRecords(source: CsvSource, opts: ReadOptions): Promise
         pending = aggregate;
         return true;
       }
-      parser = new PapaParser({ delimiter: opts.delimiter, newline: nl ?? '\n', quoteChar: '"' });
+      parser = new PapaParser({ delimiter: opts.delimiter, newline: nl ?? (aggregate.includes('\r') ? '\r' : '\n'), quoteChar: '"' });
     }
     if (aggregate.length === 0) return true;
     const quoted = aggregate.indexOf('"') !== -1;

@@ -88,7 +88,7 @@ export const TimestampSchema = z
     dateOrder: z
       .enum(['ymd', 'dmy', 'mdy'])
       .optional()
-      .describe('Order of day, month and year; required for the date-time format and never guessed.'),
+      .describe('Order of day, month and year: dmy = day-first (31/01/2025), mdy = month-first (01/31/2025), ymd = year-first. Required for the date-time format and never guessed.'),
     zone: z
       .enum(['offset-in-stamp', 'utc', 'local', 'local-standard'])
       .describe('offset-in-stamp: each stamp carries Z or +HH:MM; utc: stamps are UTC; local: wall-clock time in `timeZone` (DST applied); local-standard: `timeZone` standard time all year.'),

@@ -1,5 +1,5 @@
 /** Meters and their interval data (packed day blocks). Every function is scoped by organization. */
-import { and, asc, between, eq, gte, lte } from 'drizzle-orm';
+import { and, asc, between, eq, gte, lte, sql } from 'drizzle-orm';
 import type { Db } from './client';
 import { newId } from './ids';
 import { intervalBlock, meter } from './schema';
@@ -73,19 +73,34 @@ export async function storeSeries(tx: Tx, organizationId: string, meterId: strin
   const incoming = new Map(splitByDay(s).map((b) => [b.day, b]));
   const empty = (day: number): DayBlock => ({ day, count: 0, startMs: new Float64Array(0), kwh: new Float64Array(0), kvarhLag: new Float64Array(0), kvarhLead: new Float64Array(0), flags: new Uint8Array(0) });
   const days = new Set([...existing.keys(), ...incoming.keys()]);
+  const rows: (typeof intervalBlock.$inferInsert)[] = [];
+  const emptied: number[] = [];
   for (const day of [...days].sort((a, b) => a - b)) {
     const old = existing.get(day);
     const neu = incoming.get(day) ?? empty(day);
     const merged = old ? mergeDay(old, neu, fromMs, toMs) : neu;
     if (merged.count === 0) {
-      await tx.delete(intervalBlock).where(and(eq(intervalBlock.meterId, meterId), eq(intervalBlock.day, day)));
+      emptied.push(day);
       continue;
     }
     const p = pack(merged);
-    const values = { meterId, day, organizationId, importId, intervalMinutes: s.intervalMinutes, count: p.count, startMs: p.startMs, kwh: p.kwh, kvarhLag: p.kvarhLag, kvarhLead: p.kvarhLead, flags: p.flags };
-    await tx.insert(intervalBlock).values(values).onConflictDoUpdate({ target: [intervalBlock.meterId, intervalBlock.day], set: values });
+    rows.push({ meterId, day, organizationId, importId, intervalMinutes: s.intervalMinutes, count: p.count, startMs: p.startMs, kwh: p.kwh, kvarhLag: p.kvarhLag, kvarhLead: p.kvarhLead, flags: p.flags });
+  }
+  for (const day of emptied) await tx.delete(intervalBlock).where(and(eq(intervalBlock.meterId, meterId), eq(intervalBlock.day, day)));
+  // Multi-row upserts (a day block is one row), well under SQLite's bound-parameter limit per statement.
+  const excluded = (col: string) => sql.raw(`excluded.${col}`);
+  for (let i = 0; i < rows.length; i += BATCH) {
+    await tx
+      .insert(intervalBlock)
+      .values(rows.slice(i, i + BATCH))
+      .onConflictDoUpdate({
+        target: [intervalBlock.meterId, intervalBlock.day],
+        set: { importId: excluded('import_id'), intervalMinutes: excluded('interval_minutes'), count: excluded('count'), startMs: excluded('start_ms'), kwh: excluded('kwh'), kvarhLag: excluded('kvarh_lag'), kvarhLead: excluded('kvarh_lead'), flags: excluded('flags') },
+      });
   }
 }
+
+const BATCH = 100;
 
 /** Reads a meter's intervals whose start lies in [fromMs, toMs) as an engine series. */
 export async function readSeries(db: Conn, organizationId: string, m: Pick<MeterRow, 'id' | 'intervalMinutes' | 'reactiveSource'>, fromMs = 0, toMs = 8.64e15): Promise<IntervalSeries> {

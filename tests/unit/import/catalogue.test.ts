@@ -72,7 +72,7 @@ describe('fixture catalogue', () => {
     for (const f of catalogue.meterFiles) expect(readFileSync(`${ROOT}${f.file}`).byteLength).toBeLessThan(16_384);
   });
 
-  describe.each(catalogue.meterFiles.map((f: any) => [f.file, f]))('%s', (_name, entry: any) => {
+  describe.each(catalogue.meterFiles.map((f: any) => [f.file, f]) as [string, any][])('%s', (_name, entry) => {
     const bytes = new Uint8Array(readFileSync(`${ROOT}${entry.file}`));
     it('gives the catalogued outcome read whole', async () => {
       checkMeterOutcome(await parseMeterCsv([bytes], entry.mapping), entry.expect);
@@ -101,7 +101,7 @@ describe('fixture catalogue', () => {
     }
   });
 
-  describe.each(catalogue.billFiles.map((f: any) => [f.file, f]))('%s', (_name, entry: any) => {
+  describe.each(catalogue.billFiles.map((f: any) => [f.file, f]) as [string, any][])('%s', (_name, entry) => {
     it('gives the catalogued outcome', async () => {
       const r = await parseBillCsv([new Uint8Array(readFileSync(`${ROOT}${entry.file}`))], entry.mapping);
       const e = entry.expect;

@@ -57,7 +57,7 @@ describe('dateTimeReader: the stated order is the only one tried', () => {
     ['mdy', '12/31/2025 12:00 AM', '2025-12-31T00:00:00.000Z', '12 AM is midnight (common practice)'],
     ['dmy', '31/12/2025 24:00', '2026-01-01T00:00:00.000Z', '24:00 ends the day (ISO 8601)'],
     ['dmy', '29/02/2024 0:15', '2024-02-29T00:15:00.000Z', 'leap day, one-digit hour'],
-  ] as const)('%s %s', (order, text, iso) => {
+  ] as const)('%s %s', (order, text, iso, _source) => {
     const o = out();
     expect(dateTimeReader(order)(text, undefined, o)).toBe(true);
     expect(new Date(o.ms).toISOString()).toBe(iso);
@@ -70,7 +70,7 @@ describe('dateTimeReader: the stated order is the only one tried', () => {
     ['dmy', '03/02/25 00:00', 'two-digit years are refused rather than guessed'],
     ['dmy', '03/02/2025', 'no time'],
     ['mdy', '12/31/2025 13:00 PM', '13 PM'],
-  ] as const)('%s refuses %s (%s)', (order, text) => {
+  ] as const)('%s refuses %s (%s)', (order, text, _why) => {
     expect(dateTimeReader(order)(text, undefined, out())).toBe(false);
   });
 });

@@ -1,7 +1,8 @@
 import { ZERO_KWH } from '../power/aggregate-fields';
+import { CONTROLLER_EPS, type ReactiveCorrection } from '../power/aggregate-kernel';
 import { tanPhi } from '../power/quantities';
 import type { IntervalSeries } from '../series/interval-series';
-import { voltageScale, } from './formulas';
+import { voltageScale } from './formulas';
 import type { FixedBank, SwitchedBank } from './bank-spec';
 
 /** Leading kvarh a fixed bank supplies in every interval, after voltage scaling. */
@@ -9,7 +10,7 @@ export function fixedBankKvarhPerInterval(series: Pick<IntervalSeries, 'interval
   return bank.kvar * voltageScale(bank.serviceVoltageV, bank.ratedVoltageV) * (series.intervalMinutes / 60);
 }
 
-const EPS = 1e-9;
+const EPS = CONTROLLER_EPS;
 
 /**
  * Fills `out` with the kvarh a switched bank supplies in each interval and returns
@@ -63,4 +64,27 @@ export function switchedBankKvarhInto(series: IntervalSeries, bank: SwitchedBank
     previous = k;
   }
   return switchings;
+}
+
+/**
+ * The kernel correction for a switched bank: equal steps are decided inside the
+ * aggregation pass; listed unequal steps are filled into `scratch` first.
+ */
+export function switchedBankCorrection(series: IntervalSeries, bank: SwitchedBank, scratch: Float64Array): ReactiveCorrection {
+  const scale = voltageScale(bank.serviceVoltageV, bank.ratedVoltageV);
+  const steps = bank.stepsKvar.map((k) => k * scale);
+  const equal = steps.every((s) => Math.abs(s - steps[0]) < 1e-12);
+  if (!equal) {
+    switchedBankKvarhInto(series, bank, scratch);
+    return { kind: 'per-interval', kvarh: scratch };
+  }
+  return {
+    kind: 'equal-steps',
+    steps: steps.length,
+    stepKvarh: steps[0] * (series.intervalMinutes / 60),
+    invStepKvar: 1 / steps[0],
+    tanTarget: tanPhi(bank.targetPf),
+    tanLimit: bank.leadingLimitPf >= 1 ? 0 : tanPhi(bank.leadingLimitPf),
+    toPower: 60 / series.intervalMinutes,
+  };
 }

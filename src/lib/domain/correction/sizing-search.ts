@@ -7,7 +7,7 @@ import type { IntervalSeries } from '../series/interval-series';
 import { evaluatePrepared, prepareTariff, type EvaluateOptions, type PreparedTariff } from '../tariff/evaluate-tariff';
 import type { Tariff } from '../tariff/tariff-schema';
 import { switchedBankSchema } from './bank-spec';
-import { fixedBankKvarhPerInterval, switchedBankKvarhInto } from './bank-kvarh';
+import { fixedBankKvarhPerInterval, switchedBankCorrection } from './bank-kvarh';
 import { textbookEstimate, type TextbookEstimate } from './textbook-estimate';
 
 export interface BankCosts {
@@ -64,8 +64,8 @@ export interface SizingTable {
 /**
  * Evaluates fixed and switched banks of each size on the site's own intervals with
  * the site's tariff; the saving of a row is baseline minus corrected PF charges,
- * both from the same evaluation. One prepared plan and one scratch array serve all
- * candidates, so each costs two passes over the data and no allocation per interval.
+ * both from the same evaluation. One prepared plan serves all candidates; each costs
+ * one pass over the data (equal-step controllers run inside it) and no allocation.
  */
 export function sizingSearch(tariff: Tariff, series: IntervalSeries, periods: readonly Period[], opts: SizingOptions): SizingTable {
   const prep = prepareTariff(tariff, series, periods);
@@ -104,8 +104,7 @@ export function sizingSearch(tariff: Tariff, series: IntervalSeries, periods: re
           ratedVoltageV: opts.ratedVoltageV,
           serviceVoltageV: opts.serviceVoltageV,
         });
-        switchedBankKvarhInto(series, bank, scratch);
-        addRow('switched', kvar, n, { kind: 'per-interval', kvarh: scratch });
+        addRow('switched', kvar, n, switchedBankCorrection(series, bank, scratch));
       }
     }
   }

@@ -9,7 +9,29 @@ import type { AggregationPlan } from './aggregation-plan';
 export type ReactiveCorrection =
   | { kind: 'none' }
   | { kind: 'constant'; kvarh: number }
-  | { kind: 'per-interval'; kvarh: Float64Array };
+  | { kind: 'per-interval'; kvarh: Float64Array }
+  | EqualStepController;
+
+/**
+ * A switched bank of `steps` equal steps, decided inside the kernel's pass (one pass
+ * per candidate, no per-interval array). Built by `switchedBankCorrection`, which also
+ * holds the reference implementation (`switchedBankKvarhInto`) it must agree with.
+ */
+export interface EqualStepController {
+  kind: 'equal-steps';
+  steps: number;
+  /** kvarh one step supplies per interval. */
+  stepKvarh: number;
+  /** 1 / step kvar, per kW-based quantities. */
+  invStepKvar: number;
+  tanTarget: number;
+  tanLimit: number;
+  /** 60 / interval minutes. */
+  toPower: number;
+}
+
+/** Tolerance of the step controller, kvar. */
+export const CONTROLLER_EPS = 1e-9;
 
 const NONE: ReactiveCorrection = { kind: 'none' };
 const MISSING = SeriesFlag.reactiveMissing;
@@ -54,6 +76,14 @@ export function aggregate(plan: AggregationPlan, correction: ReactiveCorrection 
   resetAccumulator(patternAcc);
   const perInterval = correction.kind === 'per-interval' ? correction.kvarh : null;
   const constant = correction.kind === 'constant' ? correction.kvarh : 0;
+  const ctl = correction.kind === 'equal-steps' ? correction : null;
+  const useCtl = ctl !== null;
+  // Controller constants in locals: property loads inside the loop are not hoisted.
+  const cSteps = ctl?.steps ?? 0;
+  const cStepKvarh = ctl?.stepKvarh ?? 0;
+  const cTarget = ctl ? ctl.tanTarget * ctl.toPower * ctl.invStepKvar : 0;
+  const cLimit = ctl ? ctl.tanLimit * ctl.toPower * ctl.invStepKvar : 0;
+  const cScale = ctl ? ctl.toPower * ctl.invStepKvar : 0;
   // Block demand partitions the intervals, so readings are closed inside this loop;
   // rolling demand overlaps, so it keeps prefix sums for a second pass.
   const fused = blocks.partition;
@@ -72,15 +102,26 @@ export function aggregate(plan: AggregationPlan, correction: ReactiveCorrection 
   let sKwh = 0, sLag = 0, sLead = 0, sLeadZero = 0, nImport = 0, nZero = 0, nExport = 0, sKwhExport = 0, nLeading = 0, nMissing = 0, leadRatio = 0, sLagExport = 0, sLeadExport = 0;
   for (let i = 0; i < n; i++) {
     const lag0 = kvarhLag[i];
-    const c = perInterval !== null ? perInterval[i] : constant;
+    const lead0 = kvarhLead[i];
+    const e = kwh[i];
+    let c = constant;
+    if (perInterval !== null) c = perInterval[i];
+    else if (useCtl && e > ZERO_KWH) {
+      // Same decision as switchedBankKvarhInto's equal-step path (a test holds them together).
+      const q = lag0 - lead0;
+      const kTarget = Math.ceil(q * cScale - e * cTarget - CONTROLLER_EPS);
+      const kRoom = Math.floor(q * cScale + e * cLimit + CONTROLLER_EPS);
+      let k = (kTarget + kRoom - Math.abs(kTarget - kRoom)) * 0.5;
+      k = (k + cSteps - Math.abs(k - cSteps)) * 0.5;
+      c = (k + Math.abs(k)) * 0.5 * cStepKvarh;
+    }
     // Branch-free split: the lag/lead crossing is data-dependent and mispredicts, and
     // Math.max is slow in V8; (d + |d|) / 2 is max(d, 0) exactly.
     const d = lag0 - c;
     const ad = Math.abs(d);
     const lag = (d + ad) * 0.5;
-    const lead = kvarhLead[i] + (ad - d) * 0.5;
+    const lead = lead0 + (ad - d) * 0.5;
     const net = lag - lead;
-    const e = kwh[i];
     // Export intervals are reported apart: their kvar stays out of demand readings too.
     const demandNet = e >= -ZERO_KWH ? net : 0;
     if (fused) {

@@ -15,6 +15,8 @@ import {
 import { Field } from '../../../../src/lib/domain/power/aggregate-fields';
 import { KERNEL_FIELDS } from '../../../../src/lib/domain/power/aggregate-kernel';
 import { applyBankKvarh } from '../../../../src/lib/domain/correction/apply-correction';
+import { switchedBankCorrection, switchedBankKvarhInto } from '../../../../src/lib/domain/correction/bank-kvarh';
+import { switchedBankSchema } from '../../../../src/lib/domain';
 import { constantSeries, seriesByTime } from '../support/factories';
 
 const START = Date.UTC(2025, 0, 1);
@@ -120,6 +122,20 @@ describe('the corrected series and the kernel agree', () => {
     const viaSeries = evaluateTariff(tariff, applyBankKvarh(s, kvar / 4), periods);
     expect(direct.byRule.map((r) => r.total)).toEqual(viaSeries.byRule.map((r) => r.total).map((x) => expect.closeTo(x, 9)));
   });
+  it.each([
+    [{ stepsKvar: [40, 40, 40, 40], targetPf: 0.95 }, 'equal steps to unity'],
+    [{ stepsKvar: [25, 25, 25, 25, 25, 25], targetPf: 0.98, leadingLimitPf: 0.97 }, 'equal steps with a leading limit'],
+    [{ stepsKvar: [30, 60, 120], targetPf: 0.95 }, 'listed unequal steps'],
+  ])('switched bank %j: in-kernel controller = filled per-interval kvarh (%s)', (spec) => {
+    const bank = switchedBankSchema.parse({ kind: 'switched', ...spec });
+    const prep = prepareTariff(tariff, s, periods);
+    const filled = new Float64Array(s.length);
+    switchedBankKvarhInto(s, bank, filled);
+    const inKernel = evaluatePrepared(prep, switchedBankCorrection(s, bank, new Float64Array(s.length))).byRule.map((r) => r.total);
+    const viaArray = evaluatePrepared(prep, { kind: 'per-interval', kvarh: filled }).byRule.map((r) => r.total);
+    expect(inKernel).toEqual(viaArray.map((x) => expect.closeTo(x, 9)));
+  });
+
   it('kernel field offsets match the named fields', () => {
     expect(KERNEL_FIELDS).toEqual(Field);
   });

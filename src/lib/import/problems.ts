@@ -21,6 +21,7 @@ export type ProblemCode =
   | 'header-only'
   | 'file-binary'
   | 'file-not-utf8'
+  | 'line-too-long'
   | 'single-column'
   | 'mapping-invalid'
   | 'zone-unknown'

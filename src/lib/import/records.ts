@@ -25,7 +25,10 @@ export interface ReadOptions {
 
 export type ReadOutcome =
   | { ok: true; bytesRead: number; lines: number; records: number; stopped: boolean }
-  | { ok: false; code: 'file-binary' | 'file-not-utf8'; line: number; message: string; bytesRead: number };
+  | { ok: false; code: 'file-binary' | 'file-not-utf8' | 'line-too-long'; line: number; message: string; bytesRead: number };
+
+/** Longest line accepted (1 MiB): a meter export's lines are under 1 KB; a file with no line breaks is not CSV. */
+export const MAX_LINE_CHARS = 1_048_576;
 
 interface LowLevelParser {
   parse(input: string, baseIndex: number, ignoreLastRow: boolean): { data: string[][]; meta: { cursor: number } };
@@ -133,6 +136,9 @@ export async function readRecords(source: CsvSource, opts: ReadOptions): Promise
       if (nul !== -1) return failAt('file-binary', text, nul);
     }
     if (!feed(text, false)) break;
+    if (pending.length > MAX_LINE_CHARS) {
+      return { ok: false, code: 'line-too-long', line: nextLine, bytesRead, message: `Line ${nextLine.toLocaleString('en-US')} is longer than 1 MiB without a line break, so this is not a CSV export of interval data. Check the file.` };
+    }
     opts.onProgress?.({ bytesRead, rowsProcessed: records });
   }
   if (!stopped) {

@@ -79,3 +79,19 @@ describe('readRecords', () => {
     expect(outcome).toMatchObject({ ok: true, stopped: true });
   });
 });
+
+describe('readRecords on a file with no line breaks', () => {
+  it('gives up after 1 MiB instead of holding the whole file', async () => {
+    const chunk = new Uint8Array(65_536).fill(0x31);
+    let sent = 0;
+    async function* endless() {
+      while (sent < 200) {
+        sent++;
+        yield chunk;
+      }
+    }
+    const outcome = await readRecords(endless(), { delimiter: ',', onRecord: () => undefined });
+    expect(outcome).toMatchObject({ ok: false, code: 'line-too-long', line: 1 });
+    expect(sent).toBeLessThan(20);
+  });
+});

@@ -1,6 +1,7 @@
 import { SeriesFlag } from '../series/interval-series';
 import { FIELD_COUNT, ZERO_KWH } from './aggregate-fields';
 import type { AggregationPlan } from './aggregation-plan';
+import { combinePatterns, mergeMaxima, resetAccumulator, scanRollingReadings } from './aggregate-combine';
 
 /**
  * Leading kvarh a capacitor bank adds to each interval: none, the same in every
@@ -196,93 +197,4 @@ export function aggregate(plan: AggregationPlan, correction: ReactiveCorrection 
   }
   combinePatterns(plan);
   return plan.acc;
-}
-
-/** Rolling demand: highest kvar and kVA reading per (period, pattern) from prefix sums. */
-function scanRollingReadings(plan: AggregationPlan): void {
-  const { patternAcc: acc, prefix, blocks, blockSlot, peakBlockFlag, blockKvar } = plan;
-  const toKw = 60 / blocks.windowMinutes;
-  const { first, end, kw } = blocks;
-  let current = -1;
-  let maxQ = -Infinity, maxQb = -1, maxSq = -1, maxSqb = -1;
-  for (let b = 0; b < blocks.count; b++) {
-    const slot = blockSlot[b];
-    if (slot !== current) {
-      if (current >= 0) mergeMaxima(acc, current * FIELD_COUNT, maxQ, maxQb, maxSq, maxSqb);
-      current = slot;
-      maxQ = -Infinity; maxQb = -1; maxSq = -1; maxSqb = -1;
-    }
-    if (slot < 0) continue;
-    const q = (prefix[end[b]] - prefix[first[b]]) * toKw;
-    if (peakBlockFlag[b] === 1) blockKvar[b] = q;
-    const k = kw[b];
-    const sq = k * k + q * q;
-    if (q > maxQ) {
-      maxQ = q;
-      maxQb = b;
-    }
-    if (sq > maxSq) {
-      maxSq = sq;
-      maxSqb = b;
-    }
-  }
-  if (current >= 0) mergeMaxima(acc, current * FIELD_COUNT, maxQ, maxQb, maxSq, maxSqb);
-}
-
-function mergeMaxima(acc: Float64Array, o: number, maxQ: number, maxQb: number, maxSq: number, maxSqb: number): void {
-  // Strictly greater keeps the earlier reading on ties, as readings arrive in time order.
-  if (maxQ > acc[o + MAX_KVAR]) {
-    acc[o + MAX_KVAR] = maxQ;
-    acc[o + MAX_KVAR_BLOCK] = maxQb;
-  }
-  if (maxSq > acc[o + MAX_KVA_SQ]) {
-    acc[o + MAX_KVA_SQ] = maxSq;
-    acc[o + MAX_KVA_BLOCK] = maxSqb;
-  }
-}
-
-const SUMMED = [KWH, LAG, LEAD, LEAD_ZERO, IMPORT_N, ZERO_N, EXPORT_N, KWH_EXPORT, LEADING_N, MISSING_N, LAG_EXPORT, LEAD_EXPORT];
-
-/** Folds (period, pattern) records into (period, window) records and adds the coincident kvar. */
-function combinePatterns(plan: AggregationPlan): void {
-  const { acc, patternAcc, patternBits, peakBlock, blockKvar, windowCount: W } = plan;
-  const P = patternBits.length;
-  resetAccumulator(acc);
-  const periods = plan.periods.length;
-  for (let p = 0; p < periods; p++) {
-    for (let k = 0; k < P; k++) {
-      const src = (p * P + k) * FIELD_COUNT;
-      const bits = patternBits[k];
-      for (let w = 0; w < W; w++) {
-        if ((bits & (1 << w)) === 0) continue;
-        const dst = (p * W + w) * FIELD_COUNT;
-        for (const f of SUMMED) acc[dst + f] += patternAcc[src + f];
-        if (patternAcc[src + MAX_LEAD_RATIO] > acc[dst + MAX_LEAD_RATIO]) acc[dst + MAX_LEAD_RATIO] = patternAcc[src + MAX_LEAD_RATIO];
-        const qb = patternAcc[src + MAX_KVAR_BLOCK];
-        if (qb >= 0 && (patternAcc[src + MAX_KVAR] > acc[dst + MAX_KVAR] || (patternAcc[src + MAX_KVAR] === acc[dst + MAX_KVAR] && qb < acc[dst + MAX_KVAR_BLOCK]))) {
-          acc[dst + MAX_KVAR] = patternAcc[src + MAX_KVAR];
-          acc[dst + MAX_KVAR_BLOCK] = qb;
-        }
-        const sb = patternAcc[src + MAX_KVA_BLOCK];
-        if (sb >= 0 && (patternAcc[src + MAX_KVA_SQ] > acc[dst + MAX_KVA_SQ] || (patternAcc[src + MAX_KVA_SQ] === acc[dst + MAX_KVA_SQ] && sb < acc[dst + MAX_KVA_BLOCK]))) {
-          acc[dst + MAX_KVA_SQ] = patternAcc[src + MAX_KVA_SQ];
-          acc[dst + MAX_KVA_BLOCK] = sb;
-        }
-      }
-    }
-  }
-  for (let slot = 0; slot < peakBlock.length; slot++) {
-    const b = peakBlock[slot];
-    if (b >= 0) acc[slot * FIELD_COUNT + COINCIDENT_KVAR] = blockKvar[b];
-  }
-}
-
-function resetAccumulator(acc: Float64Array): void {
-  acc.fill(0);
-  for (let o = 0; o < acc.length; o += FIELD_COUNT) {
-    acc[o + MAX_KVAR] = Number.NEGATIVE_INFINITY;
-    acc[o + MAX_KVAR_BLOCK] = -1;
-    acc[o + MAX_KVA_SQ] = -1;
-    acc[o + MAX_KVA_BLOCK] = -1;
-  }
 }

@@ -126,7 +126,7 @@ describe('the corrected series and the kernel agree', () => {
     [{ stepsKvar: [40, 40, 40, 40], targetPf: 0.95 }, 'equal steps to unity'],
     [{ stepsKvar: [25, 25, 25, 25, 25, 25], targetPf: 0.98, leadingLimitPf: 0.97 }, 'equal steps with a leading limit'],
     [{ stepsKvar: [30, 60, 120], targetPf: 0.95 }, 'listed unequal steps'],
-  ])('switched bank %j: in-kernel controller = filled per-interval kvarh (%s)', (spec) => {
+  ])('switched bank %j: in-kernel controller = filled per-interval kvarh (%s)', (spec, _case) => {
     const bank = switchedBankSchema.parse({ kind: 'switched', ...spec });
     const prep = prepareTariff(tariff, s, periods);
     const filled = new Float64Array(s.length);

@@ -180,6 +180,16 @@ export function finishMeter(rows: MeterRows, set: ChannelSet, m: MeterMapping, p
   }
   if (apparent && set.apparent && unitInfo(set.apparent.unit).kind === 'demand') for (let i = 0; i < n; i++) apparent[i] *= hours;
 
+  // Own the memory: the growable columns over-allocate up to 2x; hand out exact-size arrays.
+  const tight = <T extends Float64Array | Int32Array>(a: T): T => (a.byteLength === a.buffer.byteLength ? a : (a.slice() as T));
+  stamps = tight(stamps);
+  lines = tight(lines);
+  active = tight(active);
+  ra = tight(ra);
+  rb = tight(rb);
+  apparent = apparent && tight(apparent);
+  pf = pf && tight(pf);
+
   const kind = set.reactive.kind;
   const reactive: ReactiveInput = kind === 'none' ? { kind: 'none' } : kind === 'net' ? { kind: 'net', net: ra } : { kind: 'registers', lag: ra, lead: rb };
   return {

@@ -5,6 +5,7 @@
  */
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
+import { buildSeries } from '@/lib/domain/series/build-series';
 import { parseBillCsv, parseMeterCsv, proposeMapping, type MeterImportResult } from '@/lib/import';
 
 const ROOT = new URL('../../../', import.meta.url).pathname;
@@ -36,6 +37,8 @@ function checkMeterOutcome(result: MeterImportResult, expected: Record<string, a
     const e = expected.meters[i];
     for (const k of Object.keys(e)) expect(METER_KEYS.has(k), `unknown expectation key ${k}`).toBe(true);
     const q = m.quality;
+    // The output feeds the engine as it is.
+    expect(buildSeries(m.series).ok).toBe(true);
     const tol = e.tolerance ?? 1e-6;
     expect(m.series.stamps.length).toBe(e.intervals);
     expect(q.intervals.present).toBe(e.intervals);

@@ -6,7 +6,7 @@ import tailwindcss from '@tailwindcss/vite';
 
 // Server-rendered app on the Node adapter in standalone mode: `node dist/server/entry.mjs`
 // honours HOST and PORT. Origin checks on state-changing requests are done by our own
-// middleware against the configured BASE_URL (see DEVELOPERS.md, Decisions), because Astro's
+// middleware against the configured APP_URL (see DEVELOPERS.md, Decisions), because Astro's
 // built-in check is fixed at build time and the deployment's host is only known at run time.
 export default defineConfig({
   output: 'server',

@@ -13,7 +13,7 @@ const EnvSchema = z.object({
   NODE_ENV: z.enum(['development', 'production', 'test']).default('development'),
   HOST: z.string().min(1).default('127.0.0.1'),
   PORT: port(4321),
-  BASE_URL: z.url().optional().describe('Public URL of the app; defaults to http://HOST:PORT'),
+  APP_URL: z.url().optional().describe('Public URL of the app; defaults to http://HOST:PORT'),
   DATABASE_URL: z.string().min(1).default('file:./data/varledger.db'),
   DATABASE_AUTH_TOKEN: z.string().optional(),
   DATA_DIR: z.string().min(1).default('./data'),
@@ -44,7 +44,7 @@ export function getConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
     throw new Error(`Varledger cannot start: bad configuration\n${lines.join('\n')}`);
   }
   const v = parsed.data;
-  const baseUrl = (v.BASE_URL ?? `http://${v.HOST === '0.0.0.0' ? '127.0.0.1' : v.HOST}:${v.PORT}`).replace(/\/$/, '');
+  const baseUrl = (v.APP_URL ?? `http://${v.HOST === '0.0.0.0' ? '127.0.0.1' : v.HOST}:${v.PORT}`).replace(/\/$/, '');
   const secureCookies = v.SECURE_COOKIES === 'auto' ? baseUrl.startsWith('https://') : v.SECURE_COOKIES === 'true';
   const mailboxUrl = `http://127.0.0.1:${v.MAIL_SINK_WEB_PORT}`;
   const config: AppConfig = { ...v, baseUrl, authSecret: v.AUTH_SECRET ?? localSecret(v.DATA_DIR), secureCookies, mailboxUrl };

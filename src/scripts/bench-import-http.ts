@@ -53,7 +53,7 @@ await seedDemo(db);
 db.$client.close();
 const port = await freePort();
 const base = `http://127.0.0.1:${port}`;
-const app = await startAppServer({ HOST: '127.0.0.1', PORT: String(port), BASE_URL: base, DATABASE_URL: url, DATA_DIR: dir, MAIL_SINK: 'off', NODE_ENV: 'test' }, { quiet: true });
+const app = await startAppServer({ HOST: '127.0.0.1', PORT: String(port), APP_URL: base, DATABASE_URL: url, DATA_DIR: dir, MAIL_SINK: 'off', NODE_ENV: 'test' }, { quiet: true });
 try {
   const signIn = await fetch(`${base}/api/auth/sign-in/email`, { method: 'POST', headers: { origin: base, 'content-type': 'application/json' }, body: JSON.stringify({ email: 'energy@northgate.example', password: DEMO_PASSWORD }) });
   const cookie = signIn.headers.getSetCookie().map((c) => c.split(';')[0]).join('; ');

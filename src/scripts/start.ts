@@ -6,6 +6,7 @@ import { getConfig } from '../lib/config';
 import { openDb } from '../lib/db/client';
 import { applyMigrations } from '../lib/db/migrate';
 import { seedDemo } from '../lib/demo/seed';
+import { seedDemoData } from '../lib/demo/seed-data';
 import { DEMO_PASSWORD, DEMO_PEOPLE, DEMO_WORKSPACES } from '../lib/demo/scenario';
 import { ROLE_LABELS } from '../lib/auth/permissions';
 import { startMailSink, type MailSink } from './lib/mail-sink';
@@ -23,6 +24,7 @@ const { db, ready } = openDb(cfg.DATABASE_URL, cfg.DATABASE_AUTH_TOKEN);
 await ready;
 await applyMigrations(db);
 const seeded = await seedDemo(db);
+const data = await seedDemoData(db);
 db.$client.close();
 
 let sink: MailSink | undefined;
@@ -44,7 +46,7 @@ const roleOf = (key: string) => {
 };
 console.log(`
 Varledger is running at ${cfg.baseUrl}
-  database  ${cfg.DATABASE_URL}  (demo: ${seeded.workspaces} workspaces, ${seeded.sites} sites; ${seeded.created} objects created now)
+  database  ${cfg.DATABASE_URL}  (demo: ${seeded.workspaces} workspaces, ${seeded.sites} sites; ${seeded.created} objects, ${data.imported} meter imports, ${data.tariffs} tariffs, ${data.bills} bills added now)
   mailbox   ${sink ? sink.url : `off (mail goes to ${cfg.SMTP_HOST}:${cfg.SMTP_PORT})`}
 
 Demo accounts (password for all: ${DEMO_PASSWORD})

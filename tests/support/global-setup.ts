@@ -10,6 +10,7 @@ import { createServer } from 'node:net';
 import { openDb } from '../../src/lib/db/client';
 import { applyMigrations } from '../../src/lib/db/migrate';
 import { seedDemo } from '../../src/lib/demo/seed';
+import { seedDemoData } from '../../src/lib/demo/seed-data';
 import { startMailSink } from '../../src/scripts/lib/mail-sink';
 import { startAppServer } from '../../src/scripts/lib/app-server';
 
@@ -36,17 +37,20 @@ export function freePort(): Promise<number> {
 export default async function setup(project: TestProject) {
   const dataDir = mkdtempSync(join(tmpdir(), 'varledger-test-'));
   const databaseUrl = `file:${join(dataDir, 'test.db')}`;
+  // The seeder stores the demo meter files through the app's file store, which reads DATA_DIR.
+  process.env.DATA_DIR = dataDir;
   const { db, ready } = openDb(databaseUrl);
   await ready;
   await applyMigrations(db);
   await seedDemo(db);
+  await seedDemoData(db);
   db.$client.close();
 
   const [smtpPort, webPort, appPort] = [await freePort(), await freePort(), await freePort()];
   const sink = await startMailSink({ smtpPort, webPort, mailDirectory: join(dataDir, 'mail') });
   const baseUrl = `http://127.0.0.1:${appPort}`;
   const app = await startAppServer(
-    { HOST: '127.0.0.1', PORT: String(appPort), BASE_URL: baseUrl, DATABASE_URL: databaseUrl, DATA_DIR: dataDir, SMTP_PORT: String(smtpPort), MAIL_SINK_WEB_PORT: String(webPort), NODE_ENV: 'test' },
+    { HOST: '127.0.0.1', PORT: String(appPort), APP_URL: baseUrl, DATABASE_URL: databaseUrl, DATA_DIR: dataDir, SMTP_PORT: String(smtpPort), MAIL_SINK_WEB_PORT: String(webPort), NODE_ENV: 'test' },
     { quiet: true },
   );
   project.provide('baseUrl', baseUrl);

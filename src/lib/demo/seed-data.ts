@@ -5,7 +5,7 @@
  * meter-multiplier error in the generator; one bill at another plant is deliberately mis-billed).
  * Idempotent: a site that already has meter data, a tariff or bills keeps them.
  */
-import { and, eq } from 'drizzle-orm';
+import { eq } from 'drizzle-orm';
 import { Readable } from 'node:stream';
 import type { Db } from '../db/client';
 import { bill, organization, user } from '../db/schema';
@@ -84,9 +84,4 @@ export async function seedDemoData(db: Db): Promise<{ imported: number; tariffs:
     counts.bills += parsed.bills.length;
   }
   return counts;
-}
-
-/** Whether a demo site's bills are in (for tests). */
-export async function demoBillCount(db: Db, organizationId: string, siteId: string) {
-  return (await db.select().from(bill).where(and(eq(bill.organizationId, organizationId), eq(bill.siteId, siteId)))).length;
 }

@@ -45,7 +45,7 @@ export const EXAMPLE_TARIFFS: ExampleTariff[] = [
       name: 'Business Demand, kVA (example)',
       currency: 'AUD',
       effectiveFrom: '2025-01-01',
-      demandWindowMinutes: 30,
+      demandWindowMinutes: 15,
       rules: [
         { type: 'kva-billing-demand', id: 'kva-demand', name: 'kVA demand charge above 0.90 PF', mode: 'peak-kva', reference: 'target-pf', targetPf: 0.9, demandRate: 11.5 },
         { type: 'leading-kvarh', id: 'leading-night', name: 'Leading kvarh at night', ratePerKvarh: 0.015, condition: 'any-load', window: { name: 'Night', timeRanges: [{ from: '22:00', to: '06:00' }] } },

@@ -29,7 +29,9 @@
  *   `tariffRuleSchema` the discriminated union of the six rule types listed in `RULE_TYPES`;
  *   `tariffVersionOn(versions, date)`; `evaluateTariff(tariff, series, periods, opts)` ->
  *   `TariffEvaluation` (total, per period, per rule, each with quantities and explanation);
- *   `prepareTariff` + `evaluatePrepared` to re-evaluate one binding under corrections.
+ *   `prepareTariff` + `evaluatePrepared` to re-evaluate one binding under corrections;
+ *   `evaluateTariffVersions(versions, series, periods)` picks the version per period and
+ *   carries ratchet memory across versions.
  * - Correction: `simulateFixedBank(series, bank, periods)`, `simulateSwitchedBank(series, bank, periods)`
  *   -> `BankSimulation` (corrected series, leading summary, over-corrected periods);
  *   `sizingSearch(tariff, series, periods, opts)` -> `SizingTable` (rows with saving, capex,
@@ -64,6 +66,7 @@ export * from './tariff/rule-registry';
 export type { EnteredAmounts, RuleOutcome, RuleStatus } from './tariff/rule-contract';
 export type { PriorPeriod } from './tariff/history';
 export * from './tariff/evaluate-tariff';
+export * from './tariff/evaluate-versions';
 export { pfBillingDemandRuleSchema, type PfBillingDemandRule } from './tariff/rules/pf-billing-demand';
 export { kvaBillingDemandRuleSchema, type KvaBillingDemandRule } from './tariff/rules/kva-billing-demand';
 export { excessKvarDemandRuleSchema, type ExcessKvarDemandRule } from './tariff/rules/excess-kvar-demand';

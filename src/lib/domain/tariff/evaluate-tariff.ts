@@ -16,6 +16,12 @@ export interface EvaluateOptions {
   amounts?: Readonly<Record<string, EnteredAmounts>>;
   /** Format explanations (default true); the sizing search turns this off. */
   explain?: boolean;
+  /**
+   * Ratchet memory of earlier evaluated periods by rule id (from a previous
+   * evaluation's `memory`), placed after the entered `history`. Lets a new tariff
+   * version keep the ratchet of rules whose id it keeps.
+   */
+  memory?: Readonly<Record<string, readonly RuleMemory[]>>;
 }
 
 /** One rule's result in one period. */
@@ -46,6 +52,8 @@ export interface TariffEvaluation {
   periods: PeriodCharges[];
   total: number;
   byRule: { ruleId: string; ruleLabel: string; total: number }[];
+  /** Ratchet memory by rule id after the last period, to continue in a later evaluation. */
+  memory: Record<string, RuleMemory[]>;
 }
 
 /** A tariff bound to a series and periods; reusable across correction scenarios. */
@@ -87,7 +95,7 @@ export function evaluatePrepared(prep: PreparedTariff, correction?: ReactiveCorr
   const { tariff, plan, ruleWindow } = prep;
   const explain = opts.explain ?? true;
   aggregate(plan, correction);
-  const memories: RuleMemory[][] = tariff.rules.map((rule) => historyMemory(rule, opts.history ?? []));
+  const memories: RuleMemory[][] = tariff.rules.map((rule) => [...historyMemory(rule, opts.history ?? []), ...(opts.memory?.[rule.id] ?? [])]);
   const byRule = tariff.rules.map((rule) => ({ ruleId: rule.id, ruleLabel: rule.name ?? ruleTypeLabel(rule.type), total: 0 }));
   let total = 0;
   const periods = plan.periods.map((period, p) => {
@@ -113,7 +121,8 @@ export function evaluatePrepared(prep: PreparedTariff, correction?: ReactiveCorr
     total += periodTotal;
     return { periodId: period.id, label: period.label, total: periodTotal, rules, warnings: periodWarnings(period, readAggregate(plan, p, 0), plan.series.intervalMinutes) };
   });
-  return { tariffName: tariff.name, currency: tariff.currency, periods, total, byRule };
+  const memory = Object.fromEntries(tariff.rules.map((rule, r) => [rule.id, memories[r]]));
+  return { tariffName: tariff.name, currency: tariff.currency, periods, total, byRule, memory };
 }
 
 /** Evaluates a tariff on a series over periods: the PF-related charge per period and rule. */

@@ -34,6 +34,7 @@
  *   carries ratchet memory across versions.
  * - Correction: `simulateFixedBank(series, bank, periods)`, `simulateSwitchedBank(series, bank, periods)`
  *   -> `BankSimulation` (corrected series, leading summary, over-corrected periods);
+ *   `compareCorrection(tariff, series, periods, plan)` before/after charges per period and rule;
  *   `sizingSearch(tariff, series, periods, opts)` -> `SizingTable` (rows with saving, capex,
  *   payback, NPV, IRR, leading hours; best NPV and shortest payback marked; textbook Qc);
  *   formulas `kvarToCorrect`, `kvarPerKwMultiplier`, `correctedPf`, `voltageScale`,
@@ -76,6 +77,7 @@ export { leadingKvarhRuleSchema, type LeadingKvarhRule } from './tariff/rules/le
 export * from './correction/formulas';
 export * from './correction/bank-spec';
 export * from './correction/simulate-bank';
+export * from './correction/compare-correction';
 export * from './correction/correction-summary';
 export * from './correction/sizing-search';
 export * from './correction/textbook-estimate';

@@ -8,5 +8,5 @@ export function allowanceK(a: Allowance): number {
 
 /** Text for explanations: `0.4843 (PF 0.90)` or `0.3333`. */
 export function allowanceText(a: Allowance): string {
-  return a.basis === 'pf' ? `${allowanceK(a).toFixed(4)} (tan of PF ${a.pf})` : `${a.kvarPerKw}`;
+  return a.basis === 'pf' ? `${allowanceK(a).toFixed(4)} (tan of PF ${a.pf})` : `${Number(a.kvarPerKw.toFixed(4))}`;
 }

@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import {
+  compareCorrection,
   computeMetrics,
   correctedPf,
   evaluatePrepared,
@@ -138,5 +139,20 @@ describe('the corrected series and the kernel agree', () => {
 
   it('kernel field offsets match the named fields', () => {
     expect(KERNEL_FIELDS).toEqual(Field);
+  });
+});
+
+describe('before and after a bank, per period and rule', () => {
+  // Invented steady load: 400 kW at PF 0.80 (300 kvar), all of January.
+  const s = constantSeries({ startMs: START, count: 31 * 24, intervalMinutes: 60, kw: 400, kvar: 300 });
+  const periods = januaryOf(s);
+  const tariff = unwrap(parseTariff({ name: 'Invented', currency: 'USD', rules: [{ type: 'excess-kvar-demand', id: 'kv', allowance: { basis: 'pf', pf: 0.95 }, ratePerKvar: 3 }] }));
+  it('a fixed bank of Qc = P (tan phi1 - tan phi2) removes the whole excess-kvar charge (IEEE Std 141 ch. 8)', () => {
+    const c = compareCorrection(tariff, s, periods, { kind: 'fixed', kvar: kvarToCorrect(400, 0.8, 0.95) });
+    // Before: (300 - 400 x 0.3287) kvar x $3 = $505.6.
+    expect(c.periods[0].before).toBeCloseTo((300 - 400 * Math.sqrt(1 - 0.95 ** 2) / 0.95) * 3, 6);
+    expect(c.periods[0].after).toBeCloseTo(0, 6);
+    expect(c.saving).toBeCloseTo(c.periods[0].before, 9);
+    expect(c.periods[0].rules[0]).toMatchObject({ ruleId: 'kv', before: c.periods[0].before });
   });
 });

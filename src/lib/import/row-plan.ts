@@ -238,9 +238,10 @@ export class RowPlan {
   private instant(out: StampOut, clock: ClockContext, line: number, dateText: string, timeText: string | undefined): number {
     const t = this.m.timestamp;
     if (out.offsetMin === out.offsetMin) return out.ms;
-    const text = (timeText === undefined ? dateText : `${dateText} ${timeText}`).trim();
     if (t.zone === 'utc') return out.ms;
+    const written = () => (timeText === undefined ? dateText : `${dateText} ${timeText}`).trim();
     if (t.zone === 'offset-in-stamp') {
+      const text = written();
       this.problems.add('stamp-offset-missing', line, this.header.labels[this.stampCol], text, `${rowLabel(line)}: the timestamp "${text}" has no UTC offset, but the mapping expects Z or +HH:MM on every stamp. Set the timestamps to UTC or to local time for this file.`);
       return Number.NaN;
     }
@@ -249,6 +250,7 @@ export class RowPlan {
     const r = zone.resolve(out.ms);
     if (r.kind === 'unique') return r.ms;
     if (r.kind === 'skipped') {
+      const text = written();
       this.problems.add('stamp-in-dst-gap', line, this.header.labels[this.stampCol], text, `${rowLabel(line)}: ${text} does not exist in ${zone.zoneName}: the clocks went forward over it. If the file is in standard time all year, set the timestamps to local standard time; otherwise remove the row.`);
       return Number.NaN;
     }

@@ -3,73 +3,16 @@
  * few kilobytes), with a confidence and a note per choice, the statements the user must
  * make (day-first or month-first is never guessed), and a preview of the first rows.
  */
-import { isoUtc } from '../stamps';
-import { MeterMappingSchema, type ChannelSet, type MeterMapping, type MeterMappingInput, type ReactiveMapping } from '../mapping-schema';
-import { ProblemList, type ImportProblem } from '../problems';
-import { RowPlan } from '../row-plan';
-import { isKnownZone, ZoneResolver } from '../zone-resolver';
+import { MeterMappingSchema, type ChannelSet, type MeterMapping, type MeterMappingInput } from '../mapping-schema';
+import { ProblemList } from '../problems';
+import { isKnownZone } from '../zone-resolver';
+import { channelSet } from './channel-set';
 import { headerChannel, looksLikeMeterIdHeader, stampAtHint, zoneHint, type HeaderChannel } from './channels';
+import { previewRows } from './preview';
 import { cellKind, dateOrderEvidence, guessDelimiter, headLines, isDataRow, splitLine, usesDecimalComma, type CellKind } from './sniff';
+import type { ColumnProfile, Confidence, MappingProposal, ProposalChoice, ProposalNeed, ProposeOptions } from './types';
 
-export type Confidence = 'high' | 'medium' | 'low';
-
-export interface ProposalChoice {
-  /** Dotted path in the mapping, e.g. `timestamp.stampAt`. */
-  field: string;
-  value: unknown;
-  confidence: Confidence;
-  note: string;
-}
-
-export interface ProposalNeed {
-  field: string;
-  message: string;
-  options: string[];
-}
-
-export interface ColumnProfile {
-  /** 1-based position. */
-  index: number;
-  header: string;
-  /** What most data cells look like. */
-  kind: CellKind;
-  samples: string[];
-  role: HeaderChannel['role'] | 'timestamp' | 'date' | 'time' | 'meter-id' | null;
-  unit: string | null;
-}
-
-export interface PreviewRow {
-  row: number;
-  /** The stamp as written, read as a UTC instant (interval-ending stamps not yet moved to the start). */
-  stampUtc: string;
-  meters: { meterId: string; active: number | null; reactive: number | null; reactiveLead: number | null }[];
-}
-
-export interface MappingProposal {
-  /** False when the head cannot be read at all (empty, binary, header only...). */
-  ok: boolean;
-  problems: ImportProblem[];
-  /** The complete mapping when nothing is left to state; null otherwise. */
-  mapping: MeterMapping | null;
-  /** The best guess so far, possibly incomplete; the form starts from it. */
-  draft: Partial<MeterMappingInput>;
-  choices: ProposalChoice[];
-  needs: ProposalNeed[];
-  columns: ColumnProfile[];
-  /** The first rows read with `mapping` (empty when the mapping is incomplete), and their problems. */
-  preview: { rows: PreviewRow[]; problems: ImportProblem[] };
-}
-
-export interface ProposeOptions {
-  /** The site's IANA zone, proposed for local stamps. */
-  timeZone?: string;
-  /** The user's statement of the date order, when already made. */
-  dateOrder?: 'ymd' | 'dmy' | 'mdy';
-  /** Whether `headText` was cut from a longer file (the last partial line is ignored). Default: true unless it ends with a newline. */
-  truncated?: boolean;
-  /** Rows in the preview (default 10). */
-  previewRows?: number;
-}
+export type { Confidence, ProposalChoice, ProposalNeed, ColumnProfile, PreviewRow, MappingProposal, ProposeOptions } from './types';
 
 const SAMPLE_ROWS = 60;
 
@@ -297,104 +240,3 @@ function orderName(o: 'ymd' | 'dmy' | 'mdy'): string {
   return o === 'dmy' ? 'day-first' : o === 'mdy' ? 'month-first' : 'year-first';
 }
 
-function channelSet(
-  label: string,
-  list: { i: number; ch: HeaderChannel }[],
-  data: string[][],
-  ref: (i: number) => string | number,
-  choose: (field: string, value: unknown, c: Confidence, note: string) => void,
-  needs: ProposalNeed[],
-  several: boolean,
-): ChannelSet | null {
-  const meterId = label || 'Meter 1';
-  const by = (role: string) => list.find((x) => x.ch.role === role);
-  const active = by('active');
-  const prefix = several ? `meters[${meterId}]` : 'meters[0]';
-  if (!active) {
-    needs.push({ field: `${prefix}.active`, message: `No kW or kWh column found${label ? ` for meter ${label}` : ''}. Say which column holds active power or energy.`, options: [] });
-    return null;
-  }
-  const activeUnit = (active.ch.unit?.family === 'active' ? active.ch.unit.unit : 'kWh') as ChannelSet['active']['unit'];
-  choose(`${prefix}.active`, { column: ref(active.i), unit: activeUnit }, active.ch.unit ? 'high' : 'low', active.ch.unit ? `Unit ${activeUnit} from the header (${activeUnit.endsWith('h') ? 'energy per interval' : 'average demand'}).` : 'No unit in the header: kWh per interval assumed. Check it.');
-  const reactiveUnit = (list.find((x) => x.ch.unit?.family === 'reactive')?.ch.unit?.unit ?? 'kvarh') as 'kvarh';
-  const qs = ['q1', 'q2', 'q3', 'q4'].map(by);
-  const lag = by('lag');
-  const lead = by('lead');
-  const net = by('net');
-  const plain = by('reactive');
-  let reactive: ReactiveMapping;
-  let note: string;
-  let confidence: Confidence = 'high';
-  if (qs.every(Boolean)) {
-    reactive = { kind: 'quadrants', q1: ref(qs[0]!.i), q2: ref(qs[1]!.i), q3: ref(qs[2]!.i), q4: ref(qs[3]!.i), unit: reactiveUnit };
-    note = 'Four quadrant registers: lagging = Q1 + Q2, leading = Q3 + Q4.';
-  } else if (lag && lead) {
-    reactive = { kind: 'lag-lead', lag: ref(lag.i), lead: ref(lead.i), unit: reactiveUnit };
-    note = 'Separate lagging and leading registers.';
-  } else if (net || plain) {
-    const col = (net ?? plain)!;
-    const negatives = data.some((r) => /^\s*-/.test(r[col.i]));
-    reactive = { kind: 'net', column: ref(col.i), unit: reactiveUnit };
-    confidence = net || negatives ? 'high' : 'medium';
-    note = net ? 'One net signed channel (positive = lagging, negative = leading).' : negatives ? 'One reactive column with negative values: read as net signed (negative = leading).' : 'One reactive column with no sign shown in the sample: read as net signed. If it is a lagging-only register, say so.';
-  } else if (lag) {
-    reactive = { kind: 'lagging-only', lag: ref(lag.i), unit: reactiveUnit };
-    note = 'Only a lagging register; leading is taken as zero.';
-  } else {
-    reactive = { kind: 'none' };
-    note = 'No reactive column: PF cannot be computed from this file.';
-    confidence = 'medium';
-  }
-  choose(`${prefix}.reactive`, reactive, confidence, note);
-  const set: ChannelSet = { meterId, active: { column: ref(active.i), unit: activeUnit }, reactive, multiplier: 1 };
-  const apparent = by('apparent');
-  if (apparent) set.apparent = { column: ref(apparent.i), unit: (apparent.ch.unit?.unit ?? 'kVA') as 'kVA' };
-  const pf = by('pf');
-  if (pf) set.powerFactor = { column: ref(pf.i) };
-  choose(`${prefix}.multiplier`, 1, 'low', 'Values taken as primary units (multiplier 1). Enter CT ratio x PT ratio if the export is in secondary units.');
-  return set;
-}
-
-function previewRows(m: MeterMapping, lines: string[], n: number): Pick<MappingProposal['preview'], 'rows' | 'problems'> {
-  const problems = new ProblemList();
-  const zoneName = m.timestamp.timeZone;
-  const zone = zoneName && isKnownZone(zoneName) ? new ZoneResolver(zoneName) : null;
-  let plan: RowPlan | null = null;
-  let skipAfter = m.skipRowsAfterHeader;
-  const lineNumbers: number[] = [];
-  for (let i = m.skipRows; i < lines.length && lineNumbers.length < n; i++) {
-    if (lines[i].trim() === '') continue;
-    const fields = splitLine(lines[i], m.delimiter);
-    if (!plan) {
-      plan = new RowPlan(m, m.hasHeader ? fields : null, fields.length, i + 1, zone, problems);
-      if (!plan.usable) break;
-      if (m.hasHeader) continue;
-    }
-    if (skipAfter > 0) {
-      skipAfter--;
-      continue;
-    }
-    plan.handle(fields, i + 1);
-    lineNumbers.push(i + 1);
-  }
-  const rows: PreviewRow[] = [];
-  if (plan) {
-    const meters = [...plan.meters.values()];
-    for (const line of lineNumbers) {
-      const entries: PreviewRow['meters'] = [];
-      let stamp: number | null = null;
-      for (const mr of meters) {
-        const lines = mr.lines.view();
-        const k = lines.indexOf(line);
-        if (k === -1) continue;
-        stamp = mr.stamps.data[k];
-        const a = mr.reactiveA.data[k];
-        const b = mr.reactiveB.data[k];
-        const p = mr.active.data[k];
-        entries.push({ meterId: mr.meterId, active: p === p ? p : null, reactive: a === a ? a : null, reactiveLead: b === b ? b : null });
-      }
-      if (stamp !== null) rows.push({ row: line, stampUtc: isoUtc(stamp), meters: entries });
-    }
-  }
-  return { rows, problems: problems.items };
-}

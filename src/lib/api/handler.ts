@@ -22,13 +22,14 @@ export function endpoint(fn: (ctx: APIContext) => Promise<Response> | Response):
 const MAX_JSON_BYTES = 256 * 1024;
 
 /** Reads and validates a JSON body: 415 if not JSON, 413 if too large, 400 if malformed or invalid. */
-export async function readJson<S extends z.ZodType>(request: Request, schema: S): Promise<z.infer<S>> {
+export async function readJson<S extends z.ZodType>(request: Request, schema: S, maxBytes = MAX_JSON_BYTES): Promise<z.infer<S>> {
   const type = request.headers.get('content-type') ?? '';
   if (!type.includes('application/json')) throw new ApiError(415, 'unsupported_media_type', 'Send the body as JSON (Content-Type: application/json).');
   const declared = Number(request.headers.get('content-length') ?? '0');
-  if (declared > MAX_JSON_BYTES) throw new ApiError(413, 'too_large', `The body is larger than ${MAX_JSON_BYTES / 1024} KB.`);
+  const tooLarge = () => new ApiError(413, 'too_large', `The body is larger than ${maxBytes / 1024} KB.`);
+  if (declared > maxBytes) throw tooLarge();
   const text = await request.text();
-  if (text.length > MAX_JSON_BYTES) throw new ApiError(413, 'too_large', `The body is larger than ${MAX_JSON_BYTES / 1024} KB.`);
+  if (text.length > maxBytes) throw tooLarge();
   let data: unknown;
   try {
     data = JSON.parse(text);

@@ -10,6 +10,7 @@ export const prerender = false;
 export const POST = endpoint(async (ctx) => {
   const { workspace } = requirePermission(ctx, 'meter:upload');
   const site = await siteInWorkspace(ctx.params, workspace.id);
-  const req = await readJson(ctx.request, PreviewRequestSchema);
+  // The head of the file travels as a JSON string: allow for its escaping on top of 256 KB.
+  const req = await readJson(ctx.request, PreviewRequestSchema, 1024 * 1024);
   return json(await previewMeterFile(req, site.timeZone));
 });

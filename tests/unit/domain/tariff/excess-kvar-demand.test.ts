@@ -10,7 +10,7 @@ describe('excess reactive demand', () => {
     expect(r.quantities.billableKvar).toBeCloseTo(416.67, 2);
     expect(r.amount).toBeCloseTo(166.67, 2);
     expect(r.explanation).toBe(
-      'Peak 1,000.00 kW with 750.00 kvar in the same reading (1,250.00 kVA, PF 0.800 lagging); allowance 1,000.00 kW × 0.3333333333333333 = 333.33 kvar; excess 416.67 kvar; billable 416.67 kvar × $0.40/kvar = $166.67.',
+      'Peak 1,000.00 kW with 750.00 kvar in the same reading (1,250.00 kVA, PF 0.800 lagging); allowance 1,000.00 kW × 0.3333 = 333.33 kvar; excess 416.67 kvar; billable 416.67 kvar × $0.40/kvar = $166.67.',
     );
   });
 

@@ -273,3 +273,38 @@ export const bill = sqliteTable(
   },
   (t) => [uniqueIndex('bill_site_period_idx').on(t.siteId, t.periodStart, t.periodEnd), index('bill_org_idx').on(t.organizationId)],
 );
+
+/** A saved correction plan for a site: the bank, its costs and finance inputs, and its last evaluation. */
+export const correctionPlan = sqliteTable(
+  'correction_plan',
+  {
+    id: text('id').primaryKey(),
+    organizationId: text('organization_id').notNull().references(() => organization.id, { onDelete: 'cascade' }),
+    siteId: text('site_id').notNull().references(() => site.id, { onDelete: 'cascade' }),
+    name: text('name').notNull(),
+    /** The plan as entered (bank, costs, finance); validated by the plan schema. */
+    spec: text('spec', { mode: 'json' }).$type<Record<string, unknown>>().notNull(),
+    /** Headline figures of the last evaluation (annual saving, capex, payback, NPV, IRR...). */
+    summary: text('summary', { mode: 'json' }).$type<Record<string, unknown>>(),
+    createdBy: text('created_by'),
+    createdAt: createdAt(),
+    updatedAt: updatedAt(),
+  },
+  (t) => [index('correction_plan_site_idx').on(t.siteId), index('correction_plan_org_idx').on(t.organizationId), uniqueIndex('correction_plan_site_name_idx').on(t.siteId, t.name)],
+);
+
+/** An issued Savings report: a frozen snapshot of the figures it showed. */
+export const savingsReport = sqliteTable(
+  'savings_report',
+  {
+    id: text('id').primaryKey(),
+    organizationId: text('organization_id').notNull().references(() => organization.id, { onDelete: 'cascade' }),
+    siteId: text('site_id').notNull().references(() => site.id, { onDelete: 'cascade' }),
+    planId: text('plan_id').references(() => correctionPlan.id, { onDelete: 'set null' }),
+    title: text('title').notNull(),
+    snapshot: text('snapshot', { mode: 'json' }).$type<Record<string, unknown>>().notNull(),
+    issuedBy: text('issued_by'),
+    issuedAt: integer('issued_at', { mode: 'timestamp_ms' }).notNull().default(sql`(unixepoch() * 1000)`),
+  },
+  (t) => [index('savings_report_site_idx').on(t.siteId), index('savings_report_org_idx').on(t.organizationId)],
+);

@@ -1,7 +1,7 @@
 /** The demo generator: deterministic, readable by the importer with its own mapping, and usable by the engine. */
 import { describe, expect, it } from 'vitest';
 import { buildSeries } from '@/lib/domain/series/build-series';
-import { parseBillCsv, parseMeterCsv, textChunks } from '@/lib/import';
+import { MeterMappingSchema, parseBillCsv, parseMeterCsv, proposeMapping, textChunks } from '@/lib/import';
 import {
   DEMO_METER_SITES,
   demoBillCsv,
@@ -10,6 +10,7 @@ import {
   demoIntervals,
   demoMeterCsv,
   demoMeterMapping,
+  demoMeterSite,
   KESTREL_MISBILLED_INDEX,
   TARN_VALLEY_MULTIPLIER_ERROR,
 } from '@/lib/demo/meter-csv.ts';
@@ -78,6 +79,20 @@ describe('demo meter data', () => {
     const r = await importSite('brackwater');
     if (!r.ok) throw new Error('import failed');
     expect(r.meters[0].quality.reactive.totalLeadKvarh).toBeGreaterThan(0);
+  });
+});
+
+describe('proposals for the demo exports', () => {
+  it.each(DEMO_METER_SITES)('%s: the proposal from the first 8 KB equals the demo mapping (meter name aside)', (site) => {
+    const head = demoMeterCsv(site).slice(0, 8192);
+    const zone = demoMeterSite(site).timeZone;
+    const first = proposeMapping(head, { timeZone: zone });
+    // Tarn Valley's first days are 01/01 to 03/01: day-first and month-first both fit, so it must ask.
+    expect(first.needs.map((n) => n.field)).toEqual(site === 'tarn-valley' ? ['timestamp.dateOrder'] : []);
+    const p = site === 'tarn-valley' ? proposeMapping(head, { timeZone: zone, dateOrder: 'dmy' }) : first;
+    const want = MeterMappingSchema.parse(demoMeterMapping(site));
+    const strip = (m: typeof want) => ({ ...m, meters: m.meters.map(({ meterId: _id, ...rest }) => rest) });
+    expect(p.mapping && strip(p.mapping)).toEqual(strip(want));
   });
 });
 

@@ -28,6 +28,7 @@ function checkMeterOutcome(result: MeterImportResult, expected: Record<string, a
     expect([...new Set(result.problems.map((p) => p.code))].sort()).toEqual([...expected.problemCodes].sort());
     expect(result.problems[0].row).toBe(expected.firstProblemRow);
     expect(result.totalProblems).toBe(expected.totalProblems);
+    expect(result.problems.length).toBe(expected.listedProblems ?? expected.totalProblems);
     for (const p of result.problems) expect(p.message.length).toBeGreaterThan(20);
     return;
   }
@@ -94,6 +95,7 @@ describe('fixture catalogue', () => {
         if (e.dateOrder !== undefined) expect(d.timestamp?.dateOrder).toBe(e.dateOrder);
         if (e.zone !== undefined) expect(d.timestamp?.zone).toBe(e.zone);
         if (e.skipRows !== undefined) expect(d.skipRows).toBe(e.skipRows);
+        if (e.hasHeader !== undefined) expect(d.hasHeader).toBe(e.hasHeader);
         if (e.skipRowsAfterHeader !== undefined) expect(d.skipRowsAfterHeader).toBe(e.skipRowsAfterHeader);
         if (e.meterIdColumn !== undefined) expect(d.meterIdColumn).toBe(e.meterIdColumn);
         if (e.meters !== undefined) expect(d.meters?.map((m) => m.meterId)).toEqual(e.meters);

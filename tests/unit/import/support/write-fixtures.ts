@@ -372,6 +372,39 @@ meter('spike-and-implausible-pf.csv', [HEADER, ...Array.from({ length: 96 }, (_,
   meters: [okMeter(96, DAY0, 15, ['kvar-with-zero-kw', 'pf-implausible', 'spikes', 'zero-active'], { spikeRows: [52], implausiblePfRows: [72], kvarWithZeroKwRows: [62] })],
 });
 
+// ---- more layouts and limits
+meter('no-header.csv', dayRows(8).join('\n') + '\n', 'No header row: columns named by position (1 = stamp, 2 = kWh, 3 = lagging, 4 = leading).', {
+  ...BASE,
+  hasHeader: false,
+  timestamp: { ...ISO_START, column: 1 },
+  meters: [{ meterId: 'M1', active: { column: 2, unit: 'kWh' }, reactive: { kind: 'lag-lead', lag: 3, lead: 4, unit: 'kvarh' } }],
+}, { ok: true, meters: [okMeter(8, DAY0, 15, [])] }, { proposal: { hasHeader: false } });
+meter('cr-only.csv', [HEADER, ...dayRows(8)].join('\r') + '\r', 'Bare CR line endings (old spreadsheet exports).', STD_MAPPING, { ok: true, meters: [okMeter(8, DAY0, 15, [])] });
+meter('missing-marker.csv', [HEADER, ...Array.from({ length: 8 }, (_, k) => `${iso(DAY0 + k * Q)},${k === 2 ? '-' : kwh(k)},${lag(k)},0`)].join('\n') + '\n', '"-" marks a missing kWh reading on line 4 (declared in missingValues).', { ...STD_MAPPING, missingValues: ['', '-'] }, {
+  ok: true,
+  meters: [okMeter(8, DAY0, 15, ['active-missing'], { totalImportKwh: sum(8, kwh) - kwh(2) })],
+});
+meter('many-bad-rows.csv', [HEADER, ...Array.from({ length: 150 }, (_, k) => `${iso(DAY0 + k * Q)},${kwh(k)}kWh,${lag(k)},0`)].join('\n') + '\n', '150 rows with a unit glued to the number: the first 100 problems are listed, 150 counted.', STD_MAPPING, {
+  ok: false,
+  problemCodes: ['number-invalid'],
+  firstProblemRow: 2,
+  totalProblems: 150,
+  listedProblems: 100,
+});
+meter('interval-mismatch.csv', [HEADER, ...dayRows(8)].join('\n') + '\n', 'The mapping states 30-minute intervals; the stamps are 15 minutes apart.', { ...STD_MAPPING, intervalMinutes: 30 }, {
+  ok: false,
+  problemCodes: ['interval-mismatch'],
+  firstProblemRow: 2,
+  totalProblems: 1,
+});
+meter('single-row.csv', [HEADER, ...dayRows(1)].join('\n') + '\n', 'One reading: the interval length cannot be detected unless the mapping states it.', STD_MAPPING, {
+  ok: false,
+  problemCodes: ['interval-undetectable'],
+  firstProblemRow: 2,
+  totalProblems: 1,
+});
+meter('single-row-stated-interval.csv', [HEADER, ...dayRows(1)].join('\n') + '\n', 'One reading with the interval stated in the mapping.', { ...STD_MAPPING, intervalMinutes: 15 }, { ok: true, meters: [okMeter(1, DAY0, 15, [])] });
+
 // ---- bills
 const BILL_HEADER = 'Period from,Period to,kWh,Billed demand kW,kvarh,PF,PF charge,Total';
 const BILL_MAPPING = { version: 1, delimiter: ',', decimalSeparator: '.', dateFormat: 'iso', billedDemandUnit: 'kW', currency: 'USD', columns: { periodStart: 'Period from', periodEnd: 'Period to', kwh: 'kWh', billedDemand: 'Billed demand kW', kvarh: 'kvarh', powerFactor: 'PF', pfCharge: 'PF charge', total: 'Total' } };

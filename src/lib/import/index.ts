@@ -8,7 +8,7 @@ export { MeterMappingSchema, ChannelSetSchema, TimestampSchema, type MeterMappin
 export type { MeterQuality, Finding, Gap, RowCount, RowRange } from './quality';
 export type { DstDay } from './dst-days';
 export { type ImportProblem, type ImportFailure, type ProblemCode, MAX_PROBLEMS } from './problems';
-export { readRecords, textChunks, type CsvSource, type ReadProgress } from './records';
+export { readRecords, textChunks, fromWebStream, MAX_LINE_CHARS, type CsvSource, type ReadProgress } from './records';
 export { meterMultiplier, unitFromHeader } from './units';
 export { parseBillCsv, readAmount, readBillDate, type BillImportResult, type ParsedBill, type BillWarning } from './bills/parse-bill-csv';
 export { BillDeterminantsSchema, BillMappingSchema, type BillDeterminants, type BillMapping, type BillMappingInput } from './bills/bill-schema';

@@ -158,3 +158,17 @@ export async function readRecords(source: CsvSource, opts: ReadOptions): Promise
 export function* textChunks(text: string, size = 65_536): Generator<string> {
   for (let i = 0; i < text.length; i += size) yield text.slice(i, i + size);
 }
+
+/** Adapts a web `ReadableStream` (fetch body, multipart part) to the async iterable the readers take, releasing the lock at the end. */
+export async function* fromWebStream(stream: ReadableStream<Uint8Array | string>): AsyncGenerator<Uint8Array | string> {
+  const reader = stream.getReader();
+  try {
+    for (;;) {
+      const { done, value } = await reader.read();
+      if (done) return;
+      yield value;
+    }
+  } finally {
+    reader.releaseLock();
+  }
+}

@@ -1,6 +1,6 @@
 /** Streaming: chunk boundaries, BOM, CRLF, multi-byte characters, progress, binary and non-UTF-8 input. */
 import { describe, expect, it } from 'vitest';
-import { readRecords } from '@/lib/import/records';
+import { fromWebStream, readRecords } from '@/lib/import/records';
 
 const enc = new TextEncoder();
 
@@ -93,5 +93,21 @@ describe('readRecords on a file with no line breaks', () => {
     const outcome = await readRecords(endless(), { delimiter: ',', onRecord: () => undefined });
     expect(outcome).toMatchObject({ ok: false, code: 'line-too-long', line: 1 });
     expect(sent).toBeLessThan(20);
+  });
+});
+
+describe('fromWebStream', () => {
+  it('reads a web ReadableStream chunk by chunk', async () => {
+    const parts = [enc.encode('a,b\n1,'), enc.encode('2\n')];
+    const stream = new ReadableStream<Uint8Array>({
+      start(c) {
+        for (const p of parts) c.enqueue(p);
+        c.close();
+      },
+    });
+    const rows: string[][] = [];
+    const outcome = await readRecords(fromWebStream(stream), { delimiter: ',', onRecord: (f) => void rows.push(f) });
+    expect(rows).toEqual([['a', 'b'], ['1', '2']]);
+    expect(outcome).toMatchObject({ ok: true, bytesRead: 8 });
   });
 });

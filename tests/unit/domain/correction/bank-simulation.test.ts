@@ -27,7 +27,7 @@ const januaryOf = (s: { startMs: Float64Array; length: number }) => unwrap(month
 describe('fixed bank on a constant load', () => {
   it.each([
     [100, 0.8, 0.95, 'IEEE Std 141 ch. 8: Qc = P (tan phi1 - tan phi2) lands on PF2'],
-    [620, 0.65, 0.9, 'domain.md s.5: 620 kW from 0.65 to 0.90 with 424.6 kvar'],
+    [620, 0.65, 0.9, 'worked example: 620 kW from 0.65 to 0.90 with 424.6 kvar'],
     [250, 0.75, 1.0, 'common practice: full compensation to unity'],
   ])('%s kW from PF %s to %s', (kw, from, to) => {
     const kvar = kw * Math.sqrt(1 - from * from) / from;
@@ -46,7 +46,7 @@ describe('fixed bank on a constant load', () => {
   });
 });
 
-describe('fixed bank at light load goes leading (domain.md s.3)', () => {
+describe('fixed bank at light load goes leading (common practice)', () => {
   // Invented plant: 08:00-18:00 UTC 400 kW / 300 kvar; otherwise 20 kW / 10 kvar. A 200 kvar bank.
   const day = (t: number) => new Date(t).getUTCHours() >= 8 && new Date(t).getUTCHours() < 18;
   const s = seriesByTime(START, 31 * 24, 60, (t) => (day(t) ? { kw: 400, kvar: 300 } : { kw: 20, kvar: 10 }));
@@ -54,9 +54,9 @@ describe('fixed bank at light load goes leading (domain.md s.3)', () => {
   const sim = simulateFixedBank(s, { kvar: 200 }, periods);
 
   it.each([
-    ['leading hours', sim.summary.leadingHours, 31 * 14, '14 light-load hours a day'],
-    ['leading kvarh', sim.summary.leadingKvarh, 31 * 14 * 190, '200 - 10 = 190 kvar leading each light-load hour'],
-    ['worst leading PF', sim.summary.worstLeadPf, 20 / Math.hypot(20, 190), 'domain.md s.1 PF = P / sqrt(P^2 + Q^2) = 0.1047 leading'],
+    ['leading hours', sim.summary.leadingHours, 31 * 14, 'hand-computed: 14 light-load hours a day'],
+    ['leading kvarh', sim.summary.leadingKvarh, 31 * 14 * 190, 'hand-computed: 200 - 10 = 190 kvar leading each light-load hour'],
+    ['worst leading PF', sim.summary.worstLeadPf, 20 / Math.hypot(20, 190), 'common practice: PF = P / sqrt(P^2 + Q^2) = 0.1047 leading'],
   ])('%s', (_n, actual, expected) => {
     expect(actual).toBeCloseTo(expected as number, 6);
   });
@@ -71,18 +71,18 @@ describe('switched bank controller', () => {
   it.each([
     // kW, kvar, steps, target, leading limit, kvar left, source
     [100, 75, [10, 10, 10, 10, 10, 10], 0.95, 1, 25, 'need 75 - 32.87 = 42.1 kvar -> 5 of 6 steps (IEEE Std 141 tan relation)'],
-    [100, 15, [10, 10], 1.0, 1, 5, 'the second step would pass unity: stays at 5 kvar lagging'],
-    [100, 15, [10, 10], 1.0, 0.95, -5, 'with a 0.95 leading limit the second step is allowed'],
-    [100, 50, [5, 10, 20], 0.95, 1, 15, 'listed steps in order: 5 + 10 + 20 = 35 kvar'],
-    [100, 20, [10, 10, 10], 0.95, 1, 20, 'already above target (PF 0.981): no steps'],
-    [100, -10, [10], 0.95, 1, -10, 'already leading: no steps'],
+    [100, 15, [10, 10], 1.0, 1, 5, 'hand-computed: the second step would pass unity: stays at 5 kvar lagging'],
+    [100, 15, [10, 10], 1.0, 0.95, -5, 'hand-computed: with a 0.95 leading limit the second step is allowed'],
+    [100, 50, [5, 10, 20], 0.95, 1, 15, 'hand-computed: listed steps in order: 5 + 10 + 20 = 35 kvar'],
+    [100, 20, [10, 10, 10], 0.95, 1, 20, 'hand-computed: already above target (PF 0.981): no steps'],
+    [100, -10, [10], 0.95, 1, -10, 'hand-computed: already leading: no steps'],
   ])('%s kW, %s kvar, steps %j', (kw, kvar, stepsKvar, targetPf, leadingLimitPf, left) => {
     const s = load(kw, kvar);
     const sim = simulateSwitchedBank(s, { stepsKvar, targetPf, leadingLimitPf }, januaryOf(s));
     expect((sim.series.kvarhLag[0] - sim.series.kvarhLead[0]) * 4).toBeCloseTo(left, 9);
   });
 
-  it('never goes past unity on a varied load (domain.md s.3)', () => {
+  it('never goes past unity on a varied load (common practice)', () => {
     const s = seriesByTime(START, 2000, 15, (_t, i) => ({ kw: 50 + ((i * 37) % 400), kvar: 10 + ((i * 53) % 300) }));
     const sim = simulateSwitchedBank(s, { stepsKvar: Array(8).fill(40), targetPf: 0.98 }, januaryOf(s));
     let worstNet = Infinity;

@@ -15,19 +15,19 @@ describe('kvar-per-kW multiplier table', () => {
     expect(Math.abs(kvarPerKwMultiplier(from, to) - printed)).toBeLessThanOrEqual(0.001);
   });
 
-  it('0.60 -> 0.95 exact value is 1.00465 (domain.md s.3, tan(acos .60) = 4/3 minus tan(acos .95))', () => {
+  it('0.60 -> 0.95 exact value is 1.00465 (IEEE Std 141 ch. 8 table with exact tangents: tan(acos .60) = 4/3 minus tan(acos .95))', () => {
     expect(kvarPerKwMultiplier(0.6, 0.95)).toBeCloseTo(1.00465, 5);
   });
 });
 
 describe('Qc = P (tan phi1 - tan phi2)', () => {
   it.each([
-    [620, 0.65, 0.9, 424.6, 1, 'domain.md s.5: 620 kW from 0.65 to 0.90 -> 424.6 kvar'],
+    [620, 0.65, 0.9, 424.6, 1, 'worked example: 620 kW from 0.65 to 0.90 -> 424.6 kvar'],
     [1000, 0.8, 0.95, 421.3, 1, 'IEEE Std 141 ch. 8 multiplier 0.421 x 1000 kW (exact 421.32)'],
   ])('%s kW from %s to %s', (kw, from, to, kvar, decimals) => {
     expect(kvarToCorrect(kw, from, to)).toBeCloseTo(kvar, decimals);
   });
-  it('the table multiplier 0.685 gives 425 kvar for 620 kW (domain.md s.5)', () => {
+  it('the table multiplier 0.685 gives 425 kvar for 620 kW (worked example)', () => {
     expect(Math.round(620 * 0.685)).toBe(425);
     expect(Math.round(kvarToCorrect(620, 0.65, 0.9))).toBe(425);
   });
@@ -37,7 +37,7 @@ describe('corrected PF of a constant load matches the formula', () => {
   it.each([
     // kW, PF before, PF after, source
     [500, 0.8, 0.95, 'IEEE Std 141 ch. 8: adding Qc = P(tan phi1 - tan phi2) lands exactly on PF2'],
-    [620, 0.65, 0.9, 'domain.md s.5 620 kW example'],
+    [620, 0.65, 0.9, 'worked example, 620 kW from 0.65 to 0.90'],
     [80, 0.7, 1.0, 'common practice: full compensation to unity'],
   ])('%s kW from %s to %s', (kw, from, to) => {
     const q = kw * Math.sqrt(1 - from * from) / from;
@@ -47,16 +47,16 @@ describe('corrected PF of a constant load matches the formula', () => {
 
 describe('other benefits', () => {
   it.each([
-    [0.8, 0.95, 0.2909, 'domain.md s.3: line-loss reduction 0.80 -> 0.95 = 29.09 %'],
-    [0.78, 0.98, 0.3665, 'domain.md s.3: line-loss reduction 0.78 -> 0.98 = 36.65 %'],
+    [0.8, 0.95, 0.2909, 'common practice: line-loss reduction 1 - (PF1/PF2)^2, 0.80 -> 0.95 = 29.09 %'],
+    [0.78, 0.98, 0.3665, 'common practice: line-loss reduction 1 - (PF1/PF2)^2, 0.78 -> 0.98 = 36.65 %'],
   ])('loss reduction %s -> %s', (from, to, share) => {
     expect(lossReduction(from, to)).toBeCloseTo(share, 4);
   });
-  it('released capacity 1000 kW, 0.80 -> 0.95 = 197.4 kVA (domain.md s.3)', () => {
+  it('released capacity 1000 kW, 0.80 -> 0.95 = 197.4 kVA (common practice: kW/PF1 - kW/PF2)', () => {
     expect(releasedCapacityKva(1000, 0.8, 0.95)).toBeCloseTo(197.4, 1);
   });
   it.each([
-    [0.375, 1, 0.927, 'domain.md s.4 textbook derivation: sin phi2 = y/x = 0.375 -> PF 0.927'],
+    [0.375, 1, 0.927, 'textbook derivation: sin phi2 = y/x = 0.375 -> PF 0.927'],
     [0.6, 1, 0.8, 'common practice: sin phi 0.6 is the 3-4-5 triangle, PF 0.80'],
   ])('economic PF at y/x = %s', (y, x, pf) => {
     expect(economicPf(y, x)).toBeCloseTo(pf, 3);

@@ -45,8 +45,8 @@ describe('IRR against numpy-financial (npm `financial`)', () => {
 describe('simple payback', () => {
   it.each([
     [12000, 3000, 4, 'common practice: capex / net annual saving'],
-    [9000, 0, Number.POSITIVE_INFINITY, 'domain.md s.4: no net saving -> never pays back'],
-    [9000, -500, Number.POSITIVE_INFINITY, 'issue text: savings below O&M -> infinite, not negative'],
+    [9000, 0, Number.POSITIVE_INFINITY, 'common practice: no net saving -> never pays back'],
+    [9000, -500, Number.POSITIVE_INFINITY, 'common practice: savings below O&M never pay back (infinite, not negative)'],
   ])('%s / %s', (capex, net, years) => {
     expect(simplePayback(capex, net)).toBe(years);
   });
@@ -64,7 +64,7 @@ describe('economics of a plan', () => {
     expect(e.irr as number).toBeCloseTo(refIrr(flows), 7);
   });
 
-  it('payback is infinite, not negative, when savings do not cover O&M (issue text)', () => {
+  it('payback is infinite, not negative, when savings do not cover O&M (common practice)', () => {
     const e = economics({ ...base, annualSaving: 400 });
     expect(e.paybackYears).toBe(Number.POSITIVE_INFINITY);
     expect(e.npv).toBeLessThan(-12000);
@@ -72,9 +72,9 @@ describe('economics of a plan', () => {
   });
 
   it.each([
-    [0.8, 2800 - 500, 'issue text: -20 % savings sensitivity'],
+    [0.8, 2800 - 500, 'common practice: -20 % savings sensitivity'],
     [1, 3500 - 500, 'base case'],
-    [1.2, 4200 - 500, 'issue text: +20 % savings sensitivity'],
+    [1.2, 4200 - 500, 'common practice: +20 % savings sensitivity'],
   ])('sensitivity at %s x savings', (factor, net) => {
     const row = economics(base).sensitivity.find((s) => s.savingsFactor === factor);
     expect(row?.netAnnual).toBeCloseTo(net, 9);
@@ -86,14 +86,14 @@ describe('economics of a plan', () => {
     const optionalBenefits = [lossSavingBenefit(0.8, 0.95, 2000)];
     const shown = economics({ ...base, optionalBenefits });
     const counted = economics({ ...base, optionalBenefits, includeOptional: true });
-    // domain.md s.3: 0.80 -> 0.95 cuts losses by 29.09 %, so $2000 of losses -> $581.7 a year.
+    // common practice: 1 - (PF1/PF2)^2, 0.80 -> 0.95 cuts losses by 29.09 %, so $2000 of losses -> $581.7 a year.
     expect(shown.optionalPerYear).toBeCloseTo(581.7, 1);
     expect(shown.netAnnual).toBe(3000);
     expect(counted.netAnnual).toBeCloseTo(3581.7, 1);
     expect(optionalBenefits[0].label).toMatch(/optional/);
   });
 
-  it('released capacity line values 197.4 kVA (domain.md s.3) at the given price', () => {
+  it('released capacity line values 197.4 kVA (common practice: kW/PF1 - kW/PF2) at the given price', () => {
     const b = releasedCapacityBenefit(1000, 0.8, 0.95, 10);
     expect(b.perYear).toBeCloseTo(1973.7, 1);
     expect(b.label).toMatch(/197\.4 kVA.*optional/);
@@ -102,8 +102,8 @@ describe('economics of a plan', () => {
 
 describe('capex', () => {
   it.each<[CapexInput, number, string]>([
-    [{ kvar: 300, costPerKvar: 35, fixedCost: 5000 }, 15500, 'domain.md s.4: kvar x cost per kvar + fixed installation'],
-    [{ kvar: 300, costPerKvar: 60, fixedCost: 5000, detuningPremiumPerKvar: 40 }, 35000, 'domain.md s.4: + detuning premium'],
+    [{ kvar: 300, costPerKvar: 35, fixedCost: 5000 }, 15500, 'common practice: kvar x cost per kvar + fixed installation'],
+    [{ kvar: 300, costPerKvar: 60, fixedCost: 5000, detuningPremiumPerKvar: 40 }, 35000, 'common practice: + detuning premium'],
   ])('%j', (input, total) => {
     expect(capexOf(input).total).toBe(total);
   });

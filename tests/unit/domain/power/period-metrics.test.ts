@@ -19,21 +19,21 @@ const day = unwrap(billingPeriods([{ from: '2025-01-06', to: '2025-01-06' }], 'U
 const [m15] = computeMetrics(series, day, { demandWindowMinutes: 15, pfThreshold: 0.9 });
 const [m30] = computeMetrics(series, day, { demandWindowMinutes: 30 });
 
-describe('period totals and average PF from energy totals (domain.md s.1)', () => {
+describe('period totals and average PF from energy totals (common practice)', () => {
   it.each([
-    ['kwh', m15.kwh, 120, 'hand sum of import kWh'],
-    ['kvarhLag', m15.kvarhLag, 77, 'hand sum of lagging kvarh, import and zero-kW intervals'],
-    ['kvarhLead', m15.kvarhLead, 8, 'hand sum of leading kvarh, import and zero-kW intervals'],
-    ['kvarhNet', m15.kvarhNet, 69, 'lagging minus leading'],
-    ['pfAvgLagging', m15.pfAvgLagging, 120 / Math.hypot(120, 77), 'domain.md s.1: kWh / sqrt(kWh^2 + kvarh^2), lagging basis = 0.8416'],
-    ['pfAvgNet', m15.pfAvgNet, 120 / Math.hypot(120, 69), 'domain.md s.1, net basis = 0.8669'],
-    ['pfAvgAbsolute', m15.pfAvgAbsolute, 120 / Math.hypot(120, 85), 'domain.md s.1, absolute basis = 0.8160'],
-    ['kwhExport', m15.kwhExport, 10, 'export interval reported apart'],
-    ['kvarhLagExport', m15.kvarhLagExport, 4, 'export interval reported apart'],
+    ['kwh', m15.kwh, 120, 'hand-computed: hand sum of import kWh'],
+    ['kvarhLag', m15.kvarhLag, 77, 'hand-computed: hand sum of lagging kvarh, import and zero-kW intervals'],
+    ['kvarhLead', m15.kvarhLead, 8, 'hand-computed: hand sum of leading kvarh, import and zero-kW intervals'],
+    ['kvarhNet', m15.kvarhNet, 69, 'hand-computed: lagging minus leading'],
+    ['pfAvgLagging', m15.pfAvgLagging, 120 / Math.hypot(120, 77), 'common practice: kWh / sqrt(kWh^2 + kvarh^2), lagging basis = 0.8416'],
+    ['pfAvgNet', m15.pfAvgNet, 120 / Math.hypot(120, 69), 'common practice, net basis = 0.8669'],
+    ['pfAvgAbsolute', m15.pfAvgAbsolute, 120 / Math.hypot(120, 85), 'common practice, absolute basis = 0.8160'],
+    ['kwhExport', m15.kwhExport, 10, 'hand-computed: export interval reported apart'],
+    ['kvarhLagExport', m15.kvarhLagExport, 4, 'hand-computed: export interval reported apart'],
   ])('%s', (_name, actual, expected) => {
     expect(actual).toBeCloseTo(expected as number, 9);
   });
-  it('never averages interval PFs (domain.md s.1): the mean of interval PFs differs from the energy PF', () => {
+  it('never averages interval PFs (common practice): the mean of interval PFs differs from the energy PF', () => {
     const pfs = ROWS.filter(([e]) => e > 0).map(([e, q]) => e / Math.hypot(e, q));
     const mean = pfs.reduce((s, x) => s + x, 0) / pfs.length;
     expect(Math.abs(mean - (m15.pfAvgNet ?? 0))).toBeGreaterThan(0.01);
@@ -42,15 +42,15 @@ describe('period totals and average PF from energy totals (domain.md s.1)', () =
 
 describe('demand, kVA and kvar maxima', () => {
   it.each([
-    ['15-min peak kW', m15.peakKw, 140, 'interval 3: 35 kWh x 4'],
-    ['15-min coincident kvar', m15.peakKvar, 40, 'same interval: 10 kvarh x 4'],
-    ['15-min PF at peak', m15.peakPf, 140 / Math.hypot(140, 40), 'domain.md s.1 PF at peak = 0.9615'],
-    ['15-min peak kVA', m15.peakKva, Math.hypot(140, 40), 'interval 3: 145.6 kVA'],
-    ['15-min max kvar', m15.maxKvar, 120, 'interval 4: 30 kvarh x 4'],
-    ['30-min peak kW', m30.peakKw, 110, 'domain.md s.6: 30-min demand from 15-min data, (25+30) x 2 = 110, earliest of a tie'],
-    ['30-min coincident kvar', m30.peakKvar, 70, '(15+20) x 2'],
-    ['30-min peak kVA', m30.peakKva, Math.hypot(110, 80), 'second half-hour: 110 kW, 80 kvar'],
-    ['30-min max kvar', m30.maxKvar, 80, '(10+30) x 2'],
+    ['15-min peak kW', m15.peakKw, 140, 'hand-computed: interval 3: 35 kWh x 4'],
+    ['15-min coincident kvar', m15.peakKvar, 40, 'hand-computed: same interval: 10 kvarh x 4'],
+    ['15-min PF at peak', m15.peakPf, 140 / Math.hypot(140, 40), 'common practice: PF at peak = 0.9615'],
+    ['15-min peak kVA', m15.peakKva, Math.hypot(140, 40), 'hand-computed: interval 3: 145.6 kVA'],
+    ['15-min max kvar', m15.maxKvar, 120, 'hand-computed: interval 4: 30 kvarh x 4'],
+    ['30-min peak kW', m30.peakKw, 110, 'common practice: 30-min demand from 15-min data, (25+30) x 2 = 110, earliest of a tie'],
+    ['30-min coincident kvar', m30.peakKvar, 70, 'hand-computed: (15+20) x 2'],
+    ['30-min peak kVA', m30.peakKva, Math.hypot(110, 80), 'hand-computed: second half-hour: 110 kW, 80 kvar'],
+    ['30-min max kvar', m30.maxKvar, 80, 'hand-computed: (10+30) x 2'],
   ])('%s', (_name, actual, expected) => {
     expect(actual).toBeCloseTo(expected as number, 9);
   });
@@ -66,16 +66,16 @@ describe('demand, kVA and kvar maxima', () => {
 
 describe('interval statistics and counts', () => {
   it.each([
-    ['minIntervalPf', m15.minIntervalPf, 80 / Math.hypot(80, 120), 'interval 4: 0.5547'],
-    ['hoursBelowThreshold', m15.hoursBelowThreshold, 1, 'four import intervals below 0.90'],
-    ['loadFactor', m15.loadFactor, 120 / (140 * 24), 'kWh / (peak kW x hours)'],
-    ['zeroKwIntervals', m15.zeroKwIntervals, 2, 'domain.md s.1: zero-kW intervals counted, no PF'],
-    ['exportIntervals', m15.exportIntervals, 1, 'domain.md s.1 quadrants: Q2 export counted apart'],
-    ['leadingIntervals', m15.leadingIntervals, 1, 'Q4 import interval'],
-    ['worstLeadPf', m15.worstLeadPf, 40 / Math.hypot(40, 20), 'interval 8: 0.8944 leading'],
-    ['presentIntervals', m15.presentIntervals, 8, 'eight rows'],
+    ['minIntervalPf', m15.minIntervalPf, 80 / Math.hypot(80, 120), 'hand-computed: interval 4: 0.5547'],
+    ['hoursBelowThreshold', m15.hoursBelowThreshold, 1, 'hand-computed: four import intervals below 0.90'],
+    ['loadFactor', m15.loadFactor, 120 / (140 * 24), 'hand-computed: kWh / (peak kW x hours)'],
+    ['zeroKwIntervals', m15.zeroKwIntervals, 2, 'common practice: zero-kW intervals counted, no PF'],
+    ['exportIntervals', m15.exportIntervals, 1, 'IEC quadrants, common practice: Q2 export counted apart'],
+    ['leadingIntervals', m15.leadingIntervals, 1, 'hand-computed: Q4 import interval'],
+    ['worstLeadPf', m15.worstLeadPf, 40 / Math.hypot(40, 20), 'hand-computed: interval 8: 0.8944 leading'],
+    ['presentIntervals', m15.presentIntervals, 8, 'hand-computed: eight rows'],
     ['expectedIntervals', m15.expectedIntervals, 96, 'common practice: 96 quarter-hours in a 24-hour day'],
-    ['completeness', m15.completeness, 8 / 96, 'present / expected'],
+    ['completeness', m15.completeness, 8 / 96, 'hand-computed: present / expected'],
   ])('%s', (_name, actual, expected) => {
     expect(actual).toBeCloseTo(expected as number, 9);
   });
@@ -83,7 +83,7 @@ describe('interval statistics and counts', () => {
     expect(m15.minIntervalPfSense).toBe('lag');
     expect(m15.pfAvgNetSense).toBe('lag');
   });
-  it('export intervals stay out of kvar and kVA maxima (domain.md s.1: export reported apart)', () => {
+  it('export intervals stay out of kvar and kVA maxima (common practice: export reported apart)', () => {
     const s = seriesFrom(T0, 15, [[25, 10], [-50, 200], [20, 5]]);
     const [m] = computeMetrics(s, day);
     expect(m.maxKvar).toBeCloseTo(40, 9);
@@ -101,8 +101,8 @@ describe('interval statistics and counts', () => {
 
 describe('completeness across a clock change', () => {
   it.each([
-    ['America/New_York', '2025-11-02', Date.UTC(2025, 10, 2, 4), 100, 'domain.md s.6 / IANA tz: the fall-back day has 100 quarter-hours'],
-    ['America/New_York', '2025-03-09', Date.UTC(2025, 2, 9, 5), 92, 'domain.md s.6 / IANA tz: the spring-forward day has 92'],
+    ['America/New_York', '2025-11-02', Date.UTC(2025, 10, 2, 4), 100, 'IANA tz database: the fall-back day has 100 quarter-hours'],
+    ['America/New_York', '2025-03-09', Date.UTC(2025, 2, 9, 5), 92, 'IANA tz database: the spring-forward day has 92'],
     ['Australia/Sydney', '2025-04-06', Date.UTC(2025, 3, 5, 13), 100, 'IANA tz: NSW fall-back day, southern hemisphere'],
   ])('%s %s', (zone, date, startMs, count) => {
     const s = constantSeries({ startMs, count: count + 8, intervalMinutes: 15, kw: 100, kvar: 50 });

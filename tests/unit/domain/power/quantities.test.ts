@@ -4,8 +4,8 @@ import { apparentKva, combineLoads, powerFactor, tanPhi, truePowerFactor } from 
 describe('tan(acos(pf)): allowance factors k', () => {
   it.each([
     // pf, k, decimals, source
-    [0.9, 0.4843, 4, 'domain.md s.2 clause 3 (k for 0.90); tan(acos 0.90) = 0.43589/0.90'],
-    [0.95, 0.3287, 4, 'domain.md s.2 clause 3 (k for 0.95); tan(acos 0.95) = 0.31225/0.95'],
+    [0.9, 0.4843, 4, 'common practice (k for 0.90); tan(acos 0.90) = 0.43589/0.90'],
+    [0.95, 0.3287, 4, 'common practice (k for 0.95); tan(acos 0.95) = 0.31225/0.95'],
     [0.8, 0.75, 6, 'common practice: 3-4-5 triangle, PF 0.80 -> 0.75 kvar per kW'],
     [1, 0, 9, 'common practice: unity PF draws no kvar'],
   ])('PF %s -> k %s', (pf, k, decimals) => {
@@ -21,7 +21,7 @@ describe('tan(acos(pf)): allowance factors k', () => {
 describe('power triangle of one reading', () => {
   it.each([
     // kW, kvar, kVA, PF, source
-    [1000, 750, 1250, 0.8, 'domain.md s.5 kvar demand worked check (1000 kW, 750 kvar -> 1250 kVA, PF 0.800)'],
+    [1000, 750, 1250, 0.8, 'worked example, kvar demand charge (1000 kW, 750 kvar -> 1250 kVA, PF 0.800)'],
     [300, 400, 500, 0.6, 'common practice: 3-4-5 triangle'],
     [120, -50, 130, 120 / 130, 'common practice: 5-12-13 triangle, leading kvar gives the same magnitude'],
   ])('%s kW, %s kvar', (kw, kvar, kva, pf) => {
@@ -30,15 +30,15 @@ describe('power triangle of one reading', () => {
   });
 
   it.each([
-    [0, 10, 'domain.md s.1: a zero-kW interval has no PF'],
-    [-40, 10, 'domain.md s.1 quadrants: export (Q2/Q3) gives no consumer PF'],
+    [0, 10, 'common practice: a zero-kW interval has no PF'],
+    [-40, 10, 'IEC quadrants, common practice: export (Q2/Q3) gives no consumer PF'],
   ])('no PF for %s kW (%s)', (kw, kvar) => {
     expect(powerFactor(kw, kvar)).toBeNull();
   });
 });
 
 describe('vector addition of loads', () => {
-  // domain.md s.5: 20 kW at PF 1, 100 kW at 0.707 leading, 50 kW at 0.90 lagging
+  // worked example: 20 kW at PF 1, 100 kW at 0.707 leading, 50 kW at 0.90 lagging
   // -> 170 kW, -75.8 kvar, 186 kVA, PF 0.913 leading.
   const total = combineLoads([
     { kw: 20, pf: 1, sense: 'lag' },
@@ -46,14 +46,14 @@ describe('vector addition of loads', () => {
     { kw: 50, pf: 0.9, sense: 'lag' },
   ]);
   it.each([
-    ['kw', total.kw, 170, 6, 'domain.md s.5 three loads'],
-    ['kvar', total.kvar, -75.8, 1, 'domain.md s.5 three loads (leading sign)'],
-    ['kva', total.kva, 186, 0, 'domain.md s.5 three loads'],
-    ['pf', total.pf ?? Number.NaN, 0.913, 3, 'domain.md s.5 three loads'],
+    ['kw', total.kw, 170, 6, 'worked example, vector addition of three loads'],
+    ['kvar', total.kvar, -75.8, 1, 'worked example, vector addition of three loads (leading sign)'],
+    ['kva', total.kva, 186, 0, 'worked example, vector addition of three loads'],
+    ['pf', total.pf ?? Number.NaN, 0.913, 3, 'worked example, vector addition of three loads'],
   ])('%s', (_name, actual, expected, decimals) => {
     expect(actual).toBeCloseTo(expected, decimals);
   });
-  it('is leading (domain.md s.5: PF 0.913 leading)', () => {
+  it('is leading (worked example: PF 0.913 leading)', () => {
     expect(total.sense).toBe('lead');
   });
 });

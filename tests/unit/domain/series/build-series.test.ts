@@ -5,7 +5,7 @@ const T0 = Date.UTC(2025, 0, 6);
 const Q = 15 * 60_000;
 
 describe('building a series', () => {
-  it('splits a net signed kvarh channel by sign (domain.md s.1: Q1 lagging +, Q4 leading -)', () => {
+  it('splits a net signed kvarh channel by sign (common practice: Q1 lagging +, Q4 leading -)', () => {
     const r = buildSeries({ intervalMinutes: 15, stamps: [T0, T0 + Q], active: [10, 10], reactive: { kind: 'net', net: [5, -3] } });
     expect(r.ok).toBe(true);
     if (!r.ok) return;
@@ -16,19 +16,19 @@ describe('building a series', () => {
   });
 
   it.each<['kW' | 'kWh', number, number, string]>([
-    ['kW', 100, 25, 'domain.md s.1: kWh = kW x T/60, 100 kW for 15 min = 25 kWh'],
+    ['kW', 100, 25, 'common practice: kWh = kW x T/60, 100 kW for 15 min = 25 kWh'],
     ['kWh', 25, 25, 'energy passes through'],
   ])('active unit %s', (unit, value, kwh) => {
     const r = buildSeries({ intervalMinutes: 15, stamps: [T0], active: [value], activeUnit: unit, reactive: { kind: 'none' } });
     expect(r.ok && r.value.kwh[0]).toBe(kwh);
   });
 
-  it('shifts interval-ending stamps back by one interval (domain.md s.6)', () => {
+  it('shifts interval-ending stamps back by one interval (common practice)', () => {
     const r = buildSeries({ intervalMinutes: 30, stamps: [T0 + 30 * 60_000], stampAt: 'end', active: [1], reactive: { kind: 'none' } });
     expect(r.ok && r.value.startMs[0]).toBe(T0);
   });
 
-  it('flags a missing reactive value and reports it, never fills it (domain.md s.6)', () => {
+  it('flags a missing reactive value and reports it, never fills it (common practice)', () => {
     const r = buildSeries({ intervalMinutes: 15, stamps: [T0, T0 + Q], active: [10, 10], reactive: { kind: 'registers', lag: [4, Number.NaN], lead: [0, 0] } });
     expect(r.ok).toBe(true);
     if (!r.ok) return;

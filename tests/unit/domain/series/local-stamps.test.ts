@@ -34,7 +34,7 @@ describe('local wall-clock stamps to UTC interval starts', () => {
   });
 
   it.each<[string, 'start' | 'end', number, string]>([
-    ['2025-01-01 24:00', 'end', Date.UTC(2025, 0, 1, 23, 45), 'domain.md s.6: midnight written as 24:00 ends the last interval of the day'],
+    ['2025-01-01 24:00', 'end', Date.UTC(2025, 0, 1, 23, 45), 'common practice: midnight written as 24:00 ends the last interval of the day'],
     ['2024-02-29 12:00', 'start', Date.UTC(2024, 1, 29, 12), 'common practice: leap day 2024 exists'],
     ['2025-01-01T00:15', 'end', Date.UTC(2025, 0, 1, 0), 'ISO 8601 T separator'],
   ])('%s (%s stamp)', (stamp, stampAt, startMs) => {

@@ -22,12 +22,12 @@ const tariffWith = (rules: TariffInput['rules'], extra: Partial<TariffInput> = {
 describe('time-of-use windows in local time', () => {
   it.each<[object, string[], number, string]>([
     // window, holidays, billable kvarh, source
-    [{ timeRanges: [{ from: '22:00', to: '06:00' }] }, [], 56 * 30, '22:00-06:00 wraps midnight: 8 night hours x 7 days, (80 - 50) kvarh each'],
-    [{ weekdays: [1, 2, 3, 4, 5], timeRanges: [{ from: '22:00', to: '06:00' }] }, [], 40 * 30, 'weekdays judged by each interval\'s own local date: 5 x 8 hours'],
-    [{ weekdays: [1, 2, 3, 4, 5], timeRanges: [{ from: '22:00', to: '06:00' }], holidays: 'exclude' }, ['2025-01-08'], 32 * 30, 'a listed holiday leaves the window'],
-    [{ weekdays: [1, 2, 3, 4, 5], timeRanges: [{ from: '22:00', to: '06:00' }], holidays: 'whole-day' }, ['2025-01-08'], 32 * 80 + 8 * 80 + 16 * 20 - 0.5 * 5600, 'a listed holiday is in the window all day'],
-    [{ weekdays: [6, 7] }, [], 48 * 80 * (8 / 24) + 48 * 20 * (16 / 24) - 0.5 * 4800, 'weekend all day: 16 night + 32 day hours'],
-    [{ months: [2] }, [], 0, 'a February-only window is empty in January'],
+    [{ timeRanges: [{ from: '22:00', to: '06:00' }] }, [], 56 * 30, 'hand-computed: 22:00-06:00 wraps midnight: 8 night hours x 7 days, (80 - 50) kvarh each'],
+    [{ weekdays: [1, 2, 3, 4, 5], timeRanges: [{ from: '22:00', to: '06:00' }] }, [], 40 * 30, 'hand-computed: weekdays judged by each interval\'s own local date, 5 x 8 hours'],
+    [{ weekdays: [1, 2, 3, 4, 5], timeRanges: [{ from: '22:00', to: '06:00' }], holidays: 'exclude' }, ['2025-01-08'], 32 * 30, 'hand-computed: a listed holiday leaves the window'],
+    [{ weekdays: [1, 2, 3, 4, 5], timeRanges: [{ from: '22:00', to: '06:00' }], holidays: 'whole-day' }, ['2025-01-08'], 32 * 80 + 8 * 80 + 16 * 20 - 0.5 * 5600, 'hand-computed: a listed holiday is in the window all day'],
+    [{ weekdays: [6, 7] }, [], 48 * 80 * (8 / 24) + 48 * 20 * (16 / 24) - 0.5 * 4800, 'hand-computed: weekend all day: 16 night + 32 day hours'],
+    [{ months: [2] }, [], 0, 'hand-computed: a February-only window is empty in January'],
   ])('window %j, holidays %j', (window, holidays, billable) => {
     const e = evaluateTariff(tariffWith([nightRule(window)], { holidays }), week, weekPeriod);
     expect(e.periods[0].rules[0].quantities.billableKvarh).toBeCloseTo(Math.max(0, billable), 6);
@@ -51,10 +51,10 @@ describe('a tariff over several months', () => {
   const tariff = tariffWith([{ type: 'pf-billing-demand', id: 'bd', targetPf: 0.9, demandRatePerKw: 10, ratchet: { fraction: 0.8 } }]);
 
   it.each([
-    [0, 250, '0 of 11', 'January: (225 - 200) kW x $10, no earlier months'],
-    [1, 200, '1 of 11', 'February: ratchet 0.8 x 225 = 180 kW vs 0.8 x 200 = 160 kW without PF (domain.md s.2 clause 7)'],
-    [2, 200, '2 of 11', 'March: January still sets the floor'],
-    [3, 200, '3 of 11', 'April: fewer than 11 months of history, the ratchet uses the 3 there are'],
+    [0, 250, '0 of 11', 'hand-computed: January: (225 - 200) kW x $10, no earlier months'],
+    [1, 200, '1 of 11', 'February: ratchet 0.8 x 225 = 180 kW vs 0.8 x 200 = 160 kW without PF (common practice: ratchet over the previous 11 months)'],
+    [2, 200, '2 of 11', 'hand-computed: March: January still sets the floor'],
+    [3, 200, '3 of 11', 'hand-computed: April: fewer than 11 months of history, the ratchet uses the 3 there are'],
   ])('period %s charges %s', (p, amount, used) => {
     const e = evaluateTariff(tariff, months, periods);
     expect(e.periods[p].total).toBeCloseTo(amount, 6);
@@ -79,7 +79,7 @@ describe('a tariff over several months', () => {
     expect(e.periods[4].warnings[0]).toMatch(/^744 of 744 intervals are missing/);
   });
 
-  it('prices demand on the tariff\'s demand window (30-min demand from 15-min data, domain.md s.6)', () => {
+  it('prices demand on the tariff\'s demand window (30-min demand from 15-min data, common practice)', () => {
     const quarter = seriesByTime(start, 96, 15, (_t, i) => ({ kw: i === 41 ? 300 : 100, kvar: 0 }));
     const day = unwrap(billingPeriods([{ from: '2025-01-01', to: '2025-01-01' }], 'UTC'));
     const kva = (w: number) =>
@@ -121,10 +121,10 @@ describe('tariff schema', () => {
   });
 
   it.each<[string, string | null, string]>([
-    ['2024-12-31', null, 'before every version'],
-    ['2025-01-01', 'v2025', 'on the effective date'],
-    ['2025-09-30', 'v2025', 'the day before the next version'],
-    ['2025-10-01', 'v2025b', 'from the next version on'],
+    ['2024-12-31', null, 'common practice: a version applies from its effective date, before every version'],
+    ['2025-01-01', 'v2025', 'common practice: a version applies from its effective date, on the effective date'],
+    ['2025-09-30', 'v2025', 'common practice: a version applies from its effective date, the day before the next version'],
+    ['2025-10-01', 'v2025b', 'common practice: a version applies from its effective date, from the next version on'],
   ])('version in force on %s', (date, name) => {
     const v = (n: string, effectiveFrom: string) => tariffWith([], { name: n, effectiveFrom });
     expect(tariffVersionOn([v('v2025b', '2025-10-01'), v('v2025', '2025-01-01')], date)?.name ?? null).toBe(name);

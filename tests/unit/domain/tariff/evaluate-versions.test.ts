@@ -18,10 +18,10 @@ const version = (id: string, effectiveFrom: string, rate: number) => ({
 describe('tariff versions by effective date', () => {
   const e = evaluateTariffVersions([version('v2', '2025-03-01', 20), version('v1', '2025-01-01', 10)], series, periods);
   it.each([
-    [0, 'v1', 250, 'January: (225 - 200) kW x $10'],
-    [1, 'v1', 200, 'February: ratchet floors 180 vs 160 kW (domain.md s.2 clause 7), x $10'],
-    [2, 'v2', 400, 'March, new rate: the ratchet keeps January (180 vs 160 kW) x $20'],
-    [3, 'v2', 400, 'April: same'],
+    [0, 'v1', 250, 'hand-computed: January: (225 - 200) kW x $10'],
+    [1, 'v1', 200, 'February: ratchet floors 180 vs 160 kW (common practice: ratchet over the previous 11 months), x $10'],
+    [2, 'v2', 400, 'hand-computed: March, new rate: the ratchet keeps January (180 vs 160 kW) x $20'],
+    [3, 'v2', 400, 'hand-computed: April: same'],
   ])('period %s under %s charges %s', (p, id, amount, _source) => {
     expect(e.periods[p].versionId).toBe(id);
     expect(e.periods[p].total).toBeCloseTo(amount, 6);

@@ -5,7 +5,7 @@ import { runRule } from '../support/rules';
 const rule = (extra = {}) => ({ type: 'excess-kvar-demand' as const, id: 'kv', allowance: { basis: 'ratio' as const, kvarPerKw: 1 / 3 }, ratePerKvar: 0.4, ...extra });
 
 describe('excess reactive demand', () => {
-  it('worked check: 1000 kW, 750 kvar, k = 1/3, $0.40/kvar -> 416.7 kvar, $166.67 (domain.md s.5)', () => {
+  it('worked check: 1000 kW, 750 kvar, k = 1/3, $0.40/kvar -> 416.7 kvar, $166.67 (worked example)', () => {
     const r = runRule(rule(), aggregateOf({ peakKw: 1000, peakKvar: 750 }));
     expect(r.quantities.billableKvar).toBeCloseTo(416.67, 2);
     expect(r.amount).toBeCloseTo(166.67, 2);
@@ -15,8 +15,8 @@ describe('excess reactive demand', () => {
   });
 
   it.each([
-    [0.9, 1000 * 0.4843, 'domain.md s.2 clause 3: k = tan(acos 0.90) = 0.4843'],
-    [0.95, 1000 * 0.3287, 'domain.md s.2 clause 3: k = tan(acos 0.95) = 0.3287'],
+    [0.9, 1000 * 0.4843, 'common practice: k = tan(acos 0.90) = 0.4843'],
+    [0.95, 1000 * 0.3287, 'common practice: k = tan(acos 0.95) = 0.3287'],
   ])('allowance from PF %s', (pf, allowed) => {
     const r = runRule(rule({ allowance: { basis: 'pf', pf } }), aggregateOf({ peakKw: 1000, peakKvar: 750 }));
     expect(r.quantities.allowedKvar).toBeCloseTo(allowed, 1);
@@ -24,8 +24,8 @@ describe('excess reactive demand', () => {
   });
 
   it.each<['coincident' | 'period-max', number, number, string]>([
-    ['coincident', 300, 0, 'domain.md s.1: the kvar of the same reading as the kW peak, 300, is within the 333 kvar allowance'],
-    ['period-max', 900, (900 - 1000 / 3) * 0.4, 'domain.md s.1: non-coincident, the period maximum kvar against the maximum kW'],
+    ['coincident', 300, 0, 'common practice: the kvar of the same reading as the kW peak, 300, is within the 333 kvar allowance'],
+    ['period-max', 900, (900 - 1000 / 3) * 0.4, 'common practice: non-coincident, the period maximum kvar against the maximum kW'],
   ])('%s kvar', (kvarSource, _q, amount) => {
     // Peak 1000 kW with only 300 kvar; the period's highest kvar, 900, came at another time.
     const r = runRule(rule({ kvarSource }), aggregateOf({ peakKw: 1000, peakKvar: 300, maxKvar: 900 }));
@@ -37,7 +37,7 @@ describe('excess reactive demand', () => {
     expect(runRule(rule(), aggregateOf({ peakKw: 1000, peakKvar: -400 })).amount).toBe(0);
   });
 
-  it('ratchet over fewer than 11 earlier periods (domain.md s.2 clause 3 optional ratchet; r = 0.8 from memory)', () => {
+  it('ratchet over fewer than 11 earlier periods (common practice: optional ratchet; r = 0.8 from memory)', () => {
     const r = runRule(rule({ ratchet: { fraction: 0.8 } }), aggregateOf({ peakKw: 1000, peakKvar: 400 }), [{ billableKvar: 500 }, { billableKvar: 300 }]);
     // Measured excess 66.67 kvar; floor 0.8 x 500 = 400 kvar.
     expect(r.quantities.billableKvar).toBeCloseTo(400, 9);

@@ -3,22 +3,22 @@ import type { Allowance } from '../../../../src/lib/domain';
 import { aggregateOf } from '../support/factories';
 import { runRule } from '../support/rules';
 
-// domain.md s.5: 10,000 kWh with 6,000 kvarh (average PF 0.857).
+// worked example: 10,000 kWh with 6,000 kvarh (average PF 0.857).
 const period = aggregateOf({ kwh: 10_000, kvarhLag: 6_000 });
 const rule = (allowance: Allowance, extra = {}) => ({ type: 'excess-kvarh' as const, id: 'xr', allowance, pricing: { kind: 'flat' as const, ratePerKvarh: 0.05 }, ...extra });
 
 describe('excess reactive energy', () => {
   it.each<[Allowance, number, string]>([
-    [{ basis: 'ratio', kvarPerKw: 0.4 }, 2000, 'domain.md s.5: k = 0.4 -> 2,000 kvarh billable'],
-    [{ basis: 'ratio', kvarPerKw: 0.5 }, 1000, 'domain.md s.5: k = 0.5 -> 1,000'],
-    [{ basis: 'ratio', kvarPerKw: 0.33 }, 2700, 'domain.md s.5: k = 0.33 -> 2,700'],
+    [{ basis: 'ratio', kvarPerKw: 0.4 }, 2000, 'worked example: k = 0.4 -> 2,000 kvarh billable'],
+    [{ basis: 'ratio', kvarPerKw: 0.5 }, 1000, 'worked example: k = 0.5 -> 1,000'],
+    [{ basis: 'ratio', kvarPerKw: 0.33 }, 2700, 'worked example: k = 0.33 -> 2,700'],
   ])('allowance %j', (allowance, billable) => {
     const r = runRule(rule(allowance), period);
     expect(r.quantities.billableKvarh).toBeCloseTo(billable, 9);
     expect(r.amount).toBeCloseTo(billable * 0.05, 9);
   });
 
-  it('reports the average PF 0.857 (domain.md s.5)', () => {
+  it('reports the average PF 0.857 (worked example)', () => {
     expect(runRule(rule({ basis: 'ratio', kvarPerKw: 0.4 }), period).quantities.pf).toBeCloseTo(0.857, 3);
   });
 
@@ -35,9 +35,9 @@ describe('excess reactive energy', () => {
   });
 
   it.each<['lagging' | 'net' | 'absolute', number, string]>([
-    ['lagging', 6000 - 4000, 'domain.md s.1: leading ignored'],
-    ['net', 6000 - 1500 - 4000, 'domain.md s.1: net = lagging - leading'],
-    ['absolute', 6000 + 1500 - 4000, 'domain.md s.1: absolute = lagging + leading'],
+    ['lagging', 6000 - 4000, 'common practice: leading ignored'],
+    ['net', 6000 - 1500 - 4000, 'common practice: net = lagging - leading'],
+    ['absolute', 6000 + 1500 - 4000, 'common practice: absolute = lagging + leading'],
   ])('leading kvarh on the %s basis', (kvarhBasis, billable) => {
     const r = runRule(rule({ basis: 'ratio', kvarPerKw: 0.4 }, { kvarhBasis }), aggregateOf({ kwh: 10_000, kvarhLag: 6_000, kvarhLead: 1_500 }));
     expect(r.quantities.billableKvarh).toBeCloseTo(billable, 9);

@@ -3,7 +3,7 @@ import { aggregateOf, kvarhForPf } from '../support/factories';
 import { runRule } from '../support/rules';
 
 const at = (pf: number) => aggregateOf({ kwh: 100_000, kvarhLag: kvarhForPf(100_000, pf), peakKw: 400 });
-// domain.md s.2 clause 5: 0.5 % per 0.01 from 0.95 to 0.90, then 1 % per 0.01 below.
+// common practice: 0.5 % per 0.01 from 0.95 to 0.90, then 1 % per 0.01 below.
 const tiered = (extra = {}) => ({
   type: 'pf-percent-adjustment' as const,
   id: 'pct',
@@ -16,13 +16,13 @@ const tiered = (extra = {}) => ({
 describe('PF percentage adjustment in cumulative tiers', () => {
   it.each([
     [0.95, 'up', 0, 'common practice: exactly at the threshold, no surcharge'],
-    [0.93, 'up', 1, '2 steps x 0.5 %'],
-    [0.9, 'up', 2.5, '5 steps x 0.5 % fill the first tier exactly'],
-    [0.873, 'up', 5.5, '7.7 steps rounded up to 8: 5 x 0.5 % + 3 x 1 %'],
-    [0.873, 'down', 4.5, '7.7 steps rounded down to 7: 5 x 0.5 % + 2 x 1 %'],
-    [0.873, 'nearest', 5.5, '7.7 steps to nearest = 8'],
-    [0.873, 'exact', 5.2, '7.7 steps: 5 x 0.5 % + 2.7 x 1 %'],
-    [0.8, 'up', 12.5, '15 steps: 5 x 0.5 % + 10 x 1 %'],
+    [0.93, 'up', 1, 'hand-computed: 2 steps x 0.5 %'],
+    [0.9, 'up', 2.5, 'hand-computed: 5 steps x 0.5 % fill the first tier exactly'],
+    [0.873, 'up', 5.5, 'hand-computed: 7.7 steps rounded up to 8: 5 x 0.5 % + 3 x 1 %'],
+    [0.873, 'down', 4.5, 'hand-computed: 7.7 steps rounded down to 7: 5 x 0.5 % + 2 x 1 %'],
+    [0.873, 'nearest', 5.5, 'hand-computed: 7.7 steps to nearest = 8'],
+    [0.873, 'exact', 5.2, 'hand-computed: 7.7 steps: 5 x 0.5 % + 2.7 x 1 %'],
+    [0.8, 'up', 12.5, 'hand-computed: 15 steps: 5 x 0.5 % + 10 x 1 %'],
   ] as const)('PF %s, steps %s -> %s percent', (pf, stepRounding, percent, _source) => {
     const r = runRule(tiered({ stepRounding }), at(pf));
     // Base: 100,000 kWh x $0.10 = $10,000.
@@ -37,9 +37,9 @@ describe('PF percentage adjustment in cumulative tiers', () => {
   });
 
   it.each([
-    [0.97, 1, '2 steps above 0.95 x 0.5 % (credit shape from domain.md s.2 clause 5)'],
-    [0.999, 1.5, '4.9 steps rounded down to 4 = 2 %, capped at 1.5 %'],
-    [0.95, 0, 'no credit at the level itself'],
+    [0.97, 1, '2 steps above 0.95 x 0.5 % (common practice: credit above a level)'],
+    [0.999, 1.5, 'hand-computed: 4.9 steps rounded down to 4 = 2 %, capped at 1.5 %'],
+    [0.95, 0, 'hand-computed: no credit at the level itself'],
   ])('credit at PF %s -> %s percent', (pf, percent) => {
     const r = runRule(tiered({ credit: { abovePf: 0.95, pctPerStep: 0.5, maxPct: 1.5 } }), at(pf));
     expect(r.amount).toBeCloseTo(-100 * percent, 6);
@@ -47,8 +47,8 @@ describe('PF percentage adjustment in cumulative tiers', () => {
   });
 
   it.each([
-    [{ source: 'demand-rate', ratePerKw: 12 }, undefined, 4800, 'base = 400 kW x $12'],
-    [{ source: 'entered-amount', field: 'totalBill' }, { totalBill: 20_000 }, 20_000, 'base = the bill total entered'],
+    [{ source: 'demand-rate', ratePerKw: 12 }, undefined, 4800, 'hand-computed: base = 400 kW x $12'],
+    [{ source: 'entered-amount', field: 'totalBill' }, { totalBill: 20_000 }, 20_000, 'hand-computed: base = the bill total entered'],
   ] as const)('base %j', (base, amounts, baseAmount, _source) => {
     const r = runRule(tiered({ base }), at(0.93), [], amounts);
     expect(r.amount).toBeCloseTo(baseAmount * 0.01, 9);

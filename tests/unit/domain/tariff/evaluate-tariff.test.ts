@@ -34,6 +34,16 @@ describe('time-of-use windows in local time', () => {
     expect(e.total).toBeCloseTo(Math.max(0, billable) * 0.01, 6);
   });
 
+  it.each([
+    ['2025-11-01', '2025-11-03', Date.UTC(2025, 10, 1, 4), 73, 8 + 9 + 8, 'IANA tz database: New York falls back on 2 Nov 2025, so that night has nine hours'],
+    ['2025-03-08', '2025-03-10', Date.UTC(2025, 2, 8, 5), 71, 8 + 7 + 8, 'IANA tz database: New York springs forward on 9 Mar 2025, so that night has seven hours'],
+  ])('a 22:00-06:00 window across a clock change (%s to %s)', (from, to, startMs, hours, nightHours) => {
+    const s = seriesByTime(startMs, hours, 60, () => ({ kw: 100, kvar: 80 }));
+    const period = unwrap(billingPeriods([{ from, to }], 'America/New_York'));
+    const e = evaluateTariff(tariffWith([nightRule({ timeRanges: [{ from: '22:00', to: '06:00' }] })]), s, period);
+    expect(e.periods[0].rules[0].quantities.kwh).toBeCloseTo(nightHours * 100, 9);
+  });
+
   it('names the window in the result', () => {
     const e = evaluateTariff(tariffWith([nightRule({ name: 'Night', timeRanges: [{ from: '22:00', to: '06:00' }] })]), week, weekPeriod);
     expect(e.periods[0].rules[0].windowLabel).toBe('Night');

@@ -308,3 +308,49 @@ export const savingsReport = sqliteTable(
   },
   (t) => [index('savings_report_site_idx').on(t.siteId), index('savings_report_org_idx').on(t.organizationId)],
 );
+
+/** A Site audit purchase: one hosted checkout for one or more sites of a workspace. */
+export const purchase = sqliteTable(
+  'purchase',
+  {
+    id: text('id').primaryKey(),
+    organizationId: text('organization_id').notNull().references(() => organization.id, { onDelete: 'cascade' }),
+    /** The payment provider's checkout session id (cs_...), set once the session exists. */
+    checkoutSessionId: text('checkout_session_id').unique(),
+    checkoutUrl: text('checkout_url'),
+    status: text('status', { enum: ['pending', 'paid', 'cancelled', 'expired'] }).notNull().default('pending'),
+    /** Minor units (cents, pence) per Site audit and in total. */
+    unitAmount: integer('unit_amount').notNull(),
+    amountTotal: integer('amount_total').notNull(),
+    /** ISO 4217, upper case. */
+    currency: text('currency').notNull(),
+    siteIds: text('site_ids', { mode: 'json' }).$type<string[]>().notNull(),
+    /** Site names at the time of purchase, for the receipt (sites may be renamed or deleted later). */
+    siteNames: text('site_names', { mode: 'json' }).$type<string[]>().notNull(),
+    buyerUserId: text('buyer_user_id'),
+    buyerEmail: text('buyer_email').notNull(),
+    buyerName: text('buyer_name').notNull().default(''),
+    receiptNumber: text('receipt_number').unique(),
+    paymentIntentId: text('payment_intent_id'),
+    createdAt: createdAt(),
+    paidAt: integer('paid_at', { mode: 'timestamp_ms' }),
+    closedAt: integer('closed_at', { mode: 'timestamp_ms' }),
+  },
+  (t) => [index('purchase_org_idx').on(t.organizationId, t.createdAt)],
+);
+
+/** Every verified payment webhook event, once: the event id makes delivery idempotent. */
+export const paymentEvent = sqliteTable(
+  'payment_event',
+  {
+    id: text('id').primaryKey(),
+    /** The workspace of the purchase the event concerns; null when no purchase matched. */
+    organizationId: text('organization_id').references(() => organization.id, { onDelete: 'cascade' }),
+    purchaseId: text('purchase_id').references(() => purchase.id, { onDelete: 'set null' }),
+    type: text('type').notNull(),
+    outcome: text('outcome').notNull(),
+    detail: text('detail', { mode: 'json' }).$type<Record<string, unknown>>(),
+    receivedAt: integer('received_at', { mode: 'timestamp_ms' }).notNull().default(sql`(unixepoch() * 1000)`),
+  },
+  (t) => [index('payment_event_org_idx').on(t.organizationId)],
+);

@@ -5,6 +5,8 @@
 import { OpenAPIRegistry, OpenApiGeneratorV31 } from '@asteasolutions/zod-to-openapi';
 import { z } from 'zod';
 import { ErrorBodySchema } from './errors';
+import { siteParams, type RouteDoc } from './route-doc';
+import { AREA_ROUTES } from './routes';
 import { SiteCreateSchema, SiteSchema, SiteUpdateSchema } from '../schemas/site';
 import { TariffDtoSchema, TariffVersionSchema } from '../schemas/tariff';
 import { FindingsQuerySchema, FindingsSchema } from '../schemas/findings';
@@ -14,23 +16,6 @@ import { BillSchema, ReconciliationSchema } from '../schemas/bill';
 import { BillDeterminantsSchema } from '../import/bills/bill-schema';
 import { InvitationSchema, InviteSchema, MemberRoleSchema, MemberSchema, MeSchema, WorkspaceCreateSchema, WorkspaceSchema, WorkspaceSwitchSchema } from '../schemas/workspace';
 
-type Method = 'get' | 'post' | 'put' | 'patch' | 'delete';
-export type RouteDoc = {
-  method: Method;
-  path: string;
-  summary: string;
-  tag: string;
-  permission: string;
-  params?: z.ZodObject;
-  query?: z.ZodObject;
-  body?: z.ZodType;
-  /** multipart/form-data body instead of JSON. */
-  multipart?: z.ZodObject;
-  ok: { status: number; schema?: z.ZodType; description: string };
-  errors?: number[];
-};
-
-const siteParams = z.object({ siteId: z.string().meta({ description: 'Site id', example: 'site_3fQk...' }) });
 const meterUpload = z.object({
   file: z.string().meta({ format: 'binary', description: 'The meter export (CSV text), streamed' }),
   mapping: z.string().meta({ description: 'The confirmed MeterMapping as JSON (see the mapping step)' }),
@@ -42,7 +27,7 @@ const tariffParams = siteParams.extend({ tariffId: z.string().meta({ description
 const memberParams = z.object({ memberId: z.string() });
 const invitationParams = z.object({ invitationId: z.string() });
 
-export const ROUTES: RouteDoc[] = [
+const CORE_ROUTES: RouteDoc[] = [
   { method: 'get', path: '/api/health', summary: 'Liveness and database check', tag: 'System', permission: 'public', ok: { status: 200, schema: z.object({ ok: z.boolean() }), description: 'Up' } },
   { method: 'get', path: '/api/openapi.json', summary: 'This document', tag: 'System', permission: 'public', ok: { status: 200, description: 'OpenAPI 3.1 document' } },
   { method: 'get', path: '/api/me', summary: 'The signed-in person, active workspace, permissions and all workspaces', tag: 'Workspaces', permission: 'signed in', ok: { status: 200, schema: MeSchema, description: 'Current person' }, errors: [401] },
@@ -81,12 +66,16 @@ export const ROUTES: RouteDoc[] = [
   { method: 'get', path: '/api/sites/{siteId}/reconciliation', summary: 'Bills against the interval data and tariff: differences, disputable amount, multiplier check', tag: 'Bills', permission: 'site:view', params: siteParams, ok: { status: 200, schema: ReconciliationSchema, description: 'Reconciliation' }, errors: [401, 404, 422] },
 ];
 
+/** Every documented route: the core ones above and each area's own list in ./routes/. */
+export const ROUTES: RouteDoc[] = [...CORE_ROUTES, ...AREA_ROUTES];
+
 const ERROR_TEXT: Record<number, string> = {
   400: 'Invalid input; `error.fields` names each bad field',
   401: 'Not signed in',
   403: 'Role does not allow this, or the request came from another origin',
   404: 'Not found in the active workspace',
   409: 'Conflict with existing data',
+  402: 'A paid Site audit is needed first',
   410: 'Expired',
   413: 'Body too large',
   415: 'Wrong body or file type',

@@ -1,0 +1,7 @@
+/**
+ * Route lists per product area, each in its own file (so areas can be added without touching
+ * the others). Add an import and a spread here when a new area file is created.
+ */
+import type { RouteDoc } from '../route-doc';
+
+export const AREA_ROUTES: RouteDoc[] = [];

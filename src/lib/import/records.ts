@@ -24,7 +24,7 @@ export interface ReadOptions {
 }
 
 export type ReadOutcome =
-  | { ok: true; bytesRead: number; lines: number; records: number; stopped: boolean }
+  | { ok: true; bytesRead: number; records: number; stopped: boolean }
   | { ok: false; code: 'file-binary' | 'file-not-utf8' | 'line-too-long'; line: number; message: string; bytesRead: number };
 
 /** Longest line accepted (1 MiB): a meter export's lines are under 1 KB; a file with no line breaks is not CSV. */
@@ -151,7 +151,7 @@ export async function readRecords(source: CsvSource, opts: ReadOptions): Promise
     feed(tail, true);
     opts.onProgress?.({ bytesRead, rowsProcessed: records });
   }
-  return { ok: true, bytesRead, lines: nextLine - 1, records, stopped };
+  return { ok: true, bytesRead, records, stopped };
 }
 
 /** Splits a text into chunks of `size` characters: a helper for tests and callers holding a string already. */

@@ -29,9 +29,18 @@ const EnvSchema = z.object({
   UPLOAD_MAX_BYTES: z.coerce.number().int().min(1024).default(100 * 1024 * 1024).describe('Largest meter-data upload, bytes'),
   BILL_DOCUMENT_MAX_BYTES: z.coerce.number().int().min(1024).default(10 * 1024 * 1024).describe('Largest bill document (PDF, PNG, JPEG), bytes'),
   SECURE_COOKIES: z.enum(['auto', 'true', 'false']).default('auto'),
+  STRIPE_SECRET_KEY: z.string().regex(/^sk_(test|live)_[A-Za-z0-9]+$/, 'STRIPE_SECRET_KEY must look like sk_test_... or sk_live_...').default('sk_test_varledgerLocalFake0000000000').describe('Secret API key of the payment provider (the default only works with the local fake)'),
+  STRIPE_WEBHOOK_SECRET: z.string().regex(/^whsec_[A-Za-z0-9]+$/, 'STRIPE_WEBHOOK_SECRET must look like whsec_...').default('whsec_varledgerLocalFake0000000000').describe('Signing secret of the webhook endpoint'),
+  STRIPE_API_BASE: z.string().optional().describe('API base URL; defaults to the local fake when PAYMENT_FAKE=on, else https://api.stripe.com'),
+  PAYMENT_FAKE: z.enum(['on', 'off']).default('on').describe('Start the local payment fake with `npm start`'),
+  PAYMENT_FAKE_PORT: port(12111),
+  SITE_AUDIT_PRICE: z.coerce.number().int().min(50).max(99_999_999).default(29_000).describe('Price of one Site audit in minor units (cents, pence)'),
+  SITE_AUDIT_CURRENCY: z.string().regex(/^[A-Za-z]{3}$/, 'SITE_AUDIT_CURRENCY must be a three-letter ISO 4217 code').default('USD').transform((c) => c.toUpperCase()),
 });
 
-export type AppConfig = z.infer<typeof EnvSchema> & { baseUrl: string; authSecret: string; secureCookies: boolean; mailboxUrl: string };
+export type PaymentApi = { host: string; port: number; protocol: 'http' | 'https'; base: string; isFake: boolean };
+
+export type AppConfig = z.infer<typeof EnvSchema> & { baseUrl: string; authSecret: string; secureCookies: boolean; mailboxUrl: string; paymentApi: PaymentApi };
 
 let cached: AppConfig | undefined;
 
@@ -47,9 +56,29 @@ export function getConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
   const baseUrl = (v.APP_URL ?? `http://${v.HOST === '0.0.0.0' ? '127.0.0.1' : v.HOST}:${v.PORT}`).replace(/\/$/, '');
   const secureCookies = v.SECURE_COOKIES === 'auto' ? baseUrl.startsWith('https://') : v.SECURE_COOKIES === 'true';
   const mailboxUrl = `http://127.0.0.1:${v.MAIL_SINK_WEB_PORT}`;
-  const config: AppConfig = { ...v, baseUrl, authSecret: v.AUTH_SECRET ?? localSecret(v.DATA_DIR), secureCookies, mailboxUrl };
+  const paymentApi = paymentApiOf(v.STRIPE_API_BASE, v.PAYMENT_FAKE, v.PAYMENT_FAKE_PORT);
+  if (typeof paymentApi === 'string') throw new Error(`Varledger cannot start: bad configuration\n  STRIPE_API_BASE: ${paymentApi}`);
+  const config: AppConfig = { ...v, baseUrl, authSecret: v.AUTH_SECRET ?? localSecret(v.DATA_DIR), secureCookies, mailboxUrl, paymentApi };
   if (env === process.env) cached = config;
   return config;
+}
+
+/**
+ * Where the payment SDK sends its calls. Unset: the local fake (PAYMENT_FAKE=on) or the real API.
+ * Returns the problem as a string when the URL cannot be used.
+ */
+function paymentApiOf(base: string | undefined, fake: 'on' | 'off', fakePort: number): PaymentApi | string {
+  const raw = base?.trim() || (fake === 'on' ? `http://127.0.0.1:${fakePort}` : 'https://api.stripe.com');
+  let url: URL;
+  try {
+    url = new URL(raw);
+  } catch {
+    return `"${raw}" is not a URL`;
+  }
+  if (url.protocol !== 'http:' && url.protocol !== 'https:') return 'use an http:// or https:// URL';
+  const protocol = url.protocol === 'https:' ? 'https' : 'http';
+  const port = url.port ? Number(url.port) : protocol === 'https' ? 443 : 80;
+  return { host: url.hostname, port, protocol, base: `${protocol}://${url.host}`, isFake: url.hostname !== 'api.stripe.com' };
 }
 
 /**

@@ -72,6 +72,26 @@ export class MeterRows {
   get length(): number {
     return this.stamps.length;
   }
+
+  /** Appends one interval's values (one capacity check for the five core columns). */
+  append(stamp: number, line: number, active: number, a: number, b: number): void {
+    const s = this.stamps;
+    if (s.length === s.data.length) {
+      this.stamps.push(stamp);
+      this.lines.push(line);
+      this.active.push(active);
+      this.reactiveA.push(a);
+      this.reactiveB.push(b);
+      return;
+    }
+    const i = s.length;
+    s.data[i] = stamp;
+    this.lines.data[i] = line;
+    this.active.data[i] = active;
+    this.reactiveA.data[i] = a;
+    this.reactiveB.data[i] = b;
+    s.length = this.lines.length = this.active.length = this.reactiveA.length = this.reactiveB.length = i + 1;
+  }
 }
 
 /** How the wall readings of one stream of stamps were resolved around clock changes. */

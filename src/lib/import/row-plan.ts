@@ -192,11 +192,7 @@ export class RowPlan {
       if (v === null) return;
       pf = v;
     }
-    rows.stamps.push(instant);
-    rows.lines.push(line);
-    rows.active.push(a * s.activeFactor);
-    rows.reactiveA.push(ra * s.reactiveFactor);
-    rows.reactiveB.push(rb * s.reactiveFactor);
+    rows.append(instant, line, a * s.activeFactor, ra * s.reactiveFactor, rb * s.reactiveFactor);
     rows.apparent?.push(apparent);
     rows.pf?.push(pf);
   }

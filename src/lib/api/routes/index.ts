@@ -3,5 +3,6 @@
  * the others). Add an import and a spread here when a new area file is created.
  */
 import type { RouteDoc } from '../route-doc';
+import { PORTFOLIO_ROUTES } from './portfolio';
 
-export const AREA_ROUTES: RouteDoc[] = [];
+export const AREA_ROUTES: RouteDoc[] = [...PORTFOLIO_ROUTES];

@@ -173,8 +173,8 @@ export function aggregate(plan: AggregationPlan, correction: ReactiveCorrection 
       // count without a data-dependent branch (kvarh never comes near 1e-284).
       const m = Math.abs(net) - net;
       nLeading += m / (m + 1e-300);
-      const r = m / (2 * e);
-      if (r > leadRatio) leadRatio = r;
+      // Compare m / 2e with the running maximum by cross-multiplying: divide only on a new maximum.
+      if (m > 2 * e * leadRatio) leadRatio = m / (2 * e);
     } else if (e < -ZERO_KWH) {
       nExport++; sKwhExport -= e; sLagExport += lag; sLeadExport += lead;
     } else {

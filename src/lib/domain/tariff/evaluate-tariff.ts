@@ -62,6 +62,8 @@ export interface PreparedTariff {
   plan: AggregationPlan;
   /** Aggregation window index of each rule (0 = all hours). */
   ruleWindow: number[];
+  /** Window description of each rule, null for all hours. */
+  windowLabels: (string | null)[];
 }
 
 /** Binds a parsed tariff to a series and periods: windows, demand readings, peaks. */
@@ -84,7 +86,8 @@ export function prepareTariff(tariff: Tariff, series: IntervalSeries, periods: r
     demandWindowMinutes: tariff.demandWindowMinutes ?? series.intervalMinutes,
     demandMethod: tariff.demandMethod,
   });
-  return { tariff, plan, ruleWindow };
+  const windowLabels = tariff.rules.map((rule) => (rule.window ? describeWindow(rule.window) : null));
+  return { tariff, plan, ruleWindow, windowLabels };
 }
 
 /**
@@ -113,7 +116,7 @@ export function evaluatePrepared(prep: PreparedTariff, correction?: ReactiveCorr
         ruleId: rule.id,
         type: rule.type,
         ruleLabel: byRule[r].ruleLabel,
-        windowLabel: rule.window ? describeWindow(rule.window) : null,
+        windowLabel: prep.windowLabels[r],
       };
       return result;
     });

@@ -1,6 +1,8 @@
 import { useState } from 'react';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import { AUDIT_STATE_LABELS, type SiteDto } from '@/lib/schemas/site';
+import type { SiteDto } from '@/lib/schemas/site';
+import type { PortfolioRow } from '@/lib/portfolio/summary';
+import { PortfolioTable } from './PortfolioTable';
 import { QueryRoot } from './QueryRoot';
 import { SiteForm, type readSiteForm } from './SiteForm';
 import { api, ApiClientError } from './api';
@@ -8,11 +10,10 @@ import { api, ApiClientError } from './api';
 type Perms = { create: boolean; edit: boolean; remove: boolean };
 type FormValues = ReturnType<typeof readSiteForm>;
 
-const STATE_CLASS = { draft: 'text-muted', audited: 'text-active', reported: 'text-saving' } as const;
-
 function Sites({ perms, workspaceName }: { perms: Perms; workspaceName: string }) {
   const qc = useQueryClient();
   const sites = useQuery({ queryKey: ['sites'], queryFn: () => api<{ sites: SiteDto[] }>('/api/sites') });
+  const portfolio = useQuery({ queryKey: ['portfolio'], queryFn: () => api<{ rows: PortfolioRow[] }>('/api/portfolio') });
   const [adding, setAdding] = useState(false);
   const [editing, setEditing] = useState<string | null>(null);
   const [serverErrors, setServerErrors] = useState<Record<string, string>>({});
@@ -21,17 +22,17 @@ function Sites({ perms, workspaceName }: { perms: Perms; workspaceName: string }
   const onError = (e: unknown) => setServerErrors(e instanceof ApiClientError ? { ...e.fields, form: e.message } : { form: 'Could not save. Try again.' });
   const create = useMutation({
     mutationFn: (v: FormValues) => api<{ site: SiteDto }>('/api/sites', { method: 'POST', body: v }),
-    onSuccess: ({ site }) => { setAdding(false); setServerErrors({}); setNotice(`Site "${site.name}" added. Next: upload its interval-meter export.`); qc.invalidateQueries({ queryKey: ['sites'] }); },
+    onSuccess: ({ site }) => { setAdding(false); setServerErrors({}); setNotice(`Site "${site.name}" added. Next: upload its interval-meter export.`); qc.invalidateQueries({ queryKey: ['sites'] }); qc.invalidateQueries({ queryKey: ['portfolio'] }); },
     onError,
   });
   const update = useMutation({
     mutationFn: ({ id, v }: { id: string; v: FormValues }) => api<{ site: SiteDto }>(`/api/sites/${id}`, { method: 'PATCH', body: v }),
-    onSuccess: ({ site }) => { setEditing(null); setServerErrors({}); setNotice(`Saved "${site.name}".`); qc.invalidateQueries({ queryKey: ['sites'] }); },
+    onSuccess: ({ site }) => { setEditing(null); setServerErrors({}); setNotice(`Saved "${site.name}".`); qc.invalidateQueries({ queryKey: ['sites'] }); qc.invalidateQueries({ queryKey: ['portfolio'] }); },
     onError,
   });
   const remove = useMutation({
     mutationFn: (s: SiteDto) => api(`/api/sites/${s.id}`, { method: 'DELETE' }).then(() => s),
-    onSuccess: (s) => { setNotice(`Deleted "${s.name}".`); qc.invalidateQueries({ queryKey: ['sites'] }); },
+    onSuccess: (s) => { setNotice(`Deleted "${s.name}".`); qc.invalidateQueries({ queryKey: ['sites'] }); qc.invalidateQueries({ queryKey: ['portfolio'] }); },
     onError: (e) => setNotice(e instanceof ApiClientError ? e.message : 'Could not delete the site.'),
   });
 
@@ -68,42 +69,24 @@ function Sites({ perms, workspaceName }: { perms: Perms; workspaceName: string }
               : 'An Owner, Energy manager or Consultant of this workspace adds sites; they will appear here.'}
           </p>
         </div>
+      ) : portfolio.isPending ? (
+        <div className="rounded border border-rule bg-surface" style={{ minHeight: `${6 + list.length * 3.2}rem` }} aria-busy="true" aria-label="Computing the portfolio figures" />
+      ) : portfolio.isError ? (
+        <p className="notice notice-error" role="alert">Could not compute the portfolio: {(portfolio.error as Error).message} <button className="btn btn-quiet ml-2" onClick={() => portfolio.refetch()}>Retry</button></p>
       ) : (
-        <div className="overflow-x-auto rounded border border-rule">
-          <table className="ledger">
-            <thead>
-              <tr>
-                <th scope="col">Site</th>
-                <th scope="col">Utility</th>
-                <th scope="col">Time zone</th>
-                <th scope="col" className="text-right">Service voltage</th>
-                <th scope="col" className="text-right">Transformer</th>
-                <th scope="col">Currency</th>
-                <th scope="col">Audit state</th>
-                {(perms.edit || perms.remove) && <th scope="col"><span className="sr-only">Actions</span></th>}
-              </tr>
-            </thead>
-            <tbody>
-              {list.map((s) => (
-                <tr key={s.id}>
-                  <td><a href={`/sites/${s.id}`}>{s.name}</a>{s.address && <div className="text-xs text-muted">{s.address}</div>}</td>
-                  <td>{s.utility || <span className="text-muted">not set</span>}{s.accountNumber && <div className="text-xs text-muted">Account {s.accountNumber}</div>}</td>
-                  <td>{s.timeZone}</td>
-                  <td className="figure">{s.serviceVoltageV === null ? '—' : <>{s.serviceVoltageV.toLocaleString('en-US')}<span className="unit">V</span></>}</td>
-                  <td className="figure">{s.transformerKva === null ? '—' : <>{s.transformerKva.toLocaleString('en-US')}<span className="unit">kVA</span>{s.transformerImpedancePct !== null && <> · {s.transformerImpedancePct.toFixed(2)}<span className="unit">%Z</span></>}</>}</td>
-                  <td>{s.currency}</td>
-                  <td><span className={`tag ${STATE_CLASS[s.auditState]}`}>{AUDIT_STATE_LABELS[s.auditState]}</span></td>
-                  {(perms.edit || perms.remove) && (
-                    <td className="whitespace-nowrap text-right">
-                      {perms.edit && <button className="btn btn-quiet mr-2 text-sm" onClick={() => { setEditing(s.id); setAdding(false); setServerErrors({}); }} aria-label={`Edit ${s.name}`}>Edit</button>}
-                      {perms.remove && <button className="btn btn-danger text-sm" aria-label={`Delete ${s.name}`} disabled={remove.isPending} onClick={() => { if (window.confirm(`Delete "${s.name}" and everything recorded for it? This cannot be undone.`)) remove.mutate(s); }}>Delete</button>}
-                    </td>
-                  )}
-                </tr>
-              ))}
-            </tbody>
-          </table>
-        </div>
+        <PortfolioTable
+          rows={portfolio.data.rows}
+          actions={perms.edit || perms.remove ? (r) => {
+            const s = list.find((x) => x.id === r.site.id);
+            if (!s) return null;
+            return (
+              <span className="whitespace-nowrap">
+                {perms.edit && <button className="btn btn-quiet mr-2 text-xs" onClick={() => { setEditing(s.id); setAdding(false); setServerErrors({}); }} aria-label={`Edit ${s.name}`}>Edit</button>}
+                {perms.remove && <button className="btn btn-danger text-xs" aria-label={`Delete ${s.name}`} disabled={remove.isPending} onClick={() => { if (window.confirm(`Delete "${s.name}" and everything recorded for it? This cannot be undone.`)) remove.mutate(s); }}>Delete</button>}
+              </span>
+            );
+          } : undefined}
+        />
       )}
     </div>
   );

@@ -4,5 +4,6 @@
  */
 import type { RouteDoc } from '../route-doc';
 import { PORTFOLIO_ROUTES } from './portfolio';
+import { TARIFF_EDITOR_ROUTES } from './tariff-editor';
 
-export const AREA_ROUTES: RouteDoc[] = [...PORTFOLIO_ROUTES];
+export const AREA_ROUTES: RouteDoc[] = [...PORTFOLIO_ROUTES, ...TARIFF_EDITOR_ROUTES];

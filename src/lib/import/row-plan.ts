@@ -235,18 +235,19 @@ export class RowPlan {
     const t = this.m.timestamp;
     if (out.offsetMin === out.offsetMin) return out.ms;
     if (t.zone === 'utc') return out.ms;
-    const written = () => (timeText === undefined ? dateText : `${dateText} ${timeText}`).trim();
     if (t.zone === 'offset-in-stamp') {
-      const text = written();
+      const text = writtenStamp(dateText, timeText);
       this.problems.add('stamp-offset-missing', line, this.header.labels[this.stampCol], text, `${rowLabel(line)}: the timestamp "${text}" has no UTC offset, but the mapping expects Z or +HH:MM on every stamp. Set the timestamps to UTC or to local time for this file.`);
       return Number.NaN;
     }
     const zone = this.zone as ZoneResolver;
     if (t.zone === 'local-standard') return out.ms - zone.standardOffset(out.ms) * 60_000;
+    const unique = zone.resolveUnique(out.ms);
+    if (unique === unique) return unique;
     const r = zone.resolve(out.ms);
     if (r.kind === 'unique') return r.ms;
     if (r.kind === 'skipped') {
-      const text = written();
+      const text = writtenStamp(dateText, timeText);
       this.problems.add('stamp-in-dst-gap', line, this.header.labels[this.stampCol], text, `${rowLabel(line)}: ${text} does not exist in ${zone.zoneName}: the clocks went forward over it. If the file is in standard time all year, set the timestamps to local standard time; otherwise remove the row.`);
       return Number.NaN;
     }
@@ -260,6 +261,11 @@ export class RowPlan {
     clock.readLater++;
     return r.later;
   }
+}
+
+/** The stamp as written, for messages (date and time joined when they are two columns). */
+function writtenStamp(dateText: string, timeText: string | undefined): string {
+  return (timeText === undefined ? dateText : `${dateText} ${timeText}`).trim();
 }
 
 export { headerIndex };

@@ -125,11 +125,40 @@ export function readIso(date: string, time: string | undefined, out: StampOut): 
   return true;
 }
 
-const DATE_RE = /^(\d{1,4})[/.-](\d{1,2})[/.-](\d{1,4})$/;
+const DATE_RE = /^(\d{1,4})([/.-])(\d{1,2})\2(\d{1,4})$/;
 const TIME_RE = /^(\d{1,2}):(\d{2})(?::(\d{2}))?\s*([AaPp][Mm])?$/;
 
 /** A date in a stated order (`01/02/2025`, `2025.02.01`, `1-2-25` is refused: four-digit years only) plus a time. */
 export function dateTimeReader(order: 'ymd' | 'dmy' | 'mdy'): StampReader {
+  const slow = dateTimeReaderSlow(order);
+  const yearFirst = order === 'ymd';
+  return (date, time, out) => {
+    // Fast path for the fixed-width layouts most exports use: 31/01/2025 (or 2025/01/31) + 00:15[:00].
+    if (time !== undefined && date.length === 10 && (time.length === 5 || time.length === 8)) {
+      const s1 = yearFirst ? 4 : 2;
+      const s2 = yearFirst ? 7 : 5;
+      const c1 = date.charCodeAt(s1);
+      if ((c1 === 47 || c1 === 45 || c1 === 46) && date.charCodeAt(s2) === c1 && time.charCodeAt(2) === 58) {
+        const a = digits(date, 0, yearFirst ? 4 : 2);
+        const b = digits(date, s1 + 1, 2);
+        const c = digits(date, s2 + 1, yearFirst ? 2 : 4);
+        const h = digits(time, 0, 2);
+        const mi = digits(time, 3, 2);
+        const sec = time.length === 8 && time.charCodeAt(5) === 58 ? digits(time, 6, 2) : time.length === 5 ? 0 : -1;
+        if (a >= 0 && b >= 0 && c >= 0 && h >= 0 && mi >= 0 && sec >= 0) {
+          const ms = yearFirst ? fastWall(a, b, c, h, mi, sec, 0) : order === 'dmy' ? fastWall(c, b, a, h, mi, sec, 0) : fastWall(c, a, b, h, mi, sec, 0);
+          if (ms !== ms) return false;
+          out.ms = ms;
+          out.offsetMin = Number.NaN;
+          return true;
+        }
+      }
+    }
+    return slow(date, time, out);
+  };
+}
+
+function dateTimeReaderSlow(order: 'ymd' | 'dmy' | 'mdy'): StampReader {
   return (date, time, out) => {
     let d = date.trim();
     let tm = time?.trim();
@@ -143,8 +172,8 @@ export function dateTimeReader(order: 'ymd' | 'dmy' | 'mdy'): StampReader {
     const tmm = TIME_RE.exec(tm);
     if (!dm || !tmm) return false;
     const a = Number(dm[1]);
-    const b = Number(dm[2]);
-    const c = Number(dm[3]);
+    const b = Number(dm[3]);
+    const c = Number(dm[4]);
     let y: number;
     let mo: number;
     let day: number;
@@ -152,7 +181,7 @@ export function dateTimeReader(order: 'ymd' | 'dmy' | 'mdy'): StampReader {
       if (dm[1].length !== 4) return false;
       [y, mo, day] = [a, b, c];
     } else {
-      if (dm[3].length !== 4) return false;
+      if (dm[4].length !== 4) return false;
       [y, mo, day] = order === 'dmy' ? [c, b, a] : [c, a, b];
     }
     let h = Number(tmm[1]);

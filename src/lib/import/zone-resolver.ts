@@ -67,6 +67,31 @@ export class ZoneResolver {
    * instant it gives lies inside that segment.
    */
   resolve(wall: number): Resolution {
+    const ms = this.resolveUnique(wall);
+    if (ms === ms) return { kind: 'unique', ms };
+    return this.resolveNearChange(wall);
+  }
+
+  /**
+   * The instant of a wall reading that exists exactly once, or NaN (repeated or skipped:
+   * ask `resolve`). Allocation-free for the per-row path.
+   */
+  resolveUnique(wall: number): number {
+    this.cover(wall);
+    const k = this.segmentOf(wall - this.segOffset[this.cursor] * 60_000);
+    const st = this.segStart;
+    const off = this.segOffset;
+    const t = wall - off[k] * 60_000;
+    // Unique when the instant lies in segment k farther from its edges than any two offsets
+    // differ (27 h covers every offset jump on record): no other segment's offset can fit.
+    const lo = st[k];
+    const hi = k + 1 < st.length ? st[k + 1] : Number.POSITIVE_INFINITY;
+    const margin = 27 * 3_600_000;
+    if (t >= lo + margin && t < hi - margin) return t;
+    return Number.NaN;
+  }
+
+  private resolveNearChange(wall: number): Resolution {
     this.cover(wall);
     const k = this.segmentOf(wall - this.segOffset[this.cursor] * 60_000);
     const st = this.segStart;

@@ -75,6 +75,29 @@ describe('dateTimeReader: the stated order is the only one tried', () => {
   });
 });
 
+describe('dateTimeReader with a separate time column (fixed-width fast path)', () => {
+  it.each([
+    ['dmy', '31/12/2025', '24:00', '2026-01-01T00:00:00.000Z'],
+    ['dmy', '31.12.2025', '23:45:30', '2025-12-31T23:45:30.000Z'],
+    ['mdy', '02/29/2024', '00:15', '2024-02-29T00:15:00.000Z'],
+    ['ymd', '2025-06-02', '13:45', '2025-06-02T13:45:00.000Z'],
+    ['dmy', '3/2/2025', '7:05', '2025-02-03T07:05:00.000Z'],
+  ] as const)('%s %s %s', (order, date, time, iso) => {
+    const o = out();
+    expect(dateTimeReader(order)(date, time, o)).toBe(true);
+    expect(new Date(o.ms).toISOString()).toBe(iso);
+  });
+  it.each([
+    ['dmy', '31/02/2025', '00:00'],
+    ['mdy', '31/12/2025', '00:00'],
+    ['dmy', '01/01/2025', '24:15'],
+    ['dmy', '01/01/2025', '12h00'],
+    ['dmy', '01-01/2025', '00:00'],
+  ] as const)('%s refuses %s %s', (order, date, time) => {
+    expect(dateTimeReader(order)(date, time, out())).toBe(false);
+  });
+});
+
 describe('excelSerialReader (1900 date system: serial 25569 = 1970-01-01, common practice)', () => {
   it.each([
     ['45658', '2025-01-01T00:00:00.000Z'],

@@ -4,6 +4,7 @@
  */
 import type { RouteDoc } from '../route-doc';
 import { PORTFOLIO_ROUTES } from './portfolio';
+import { CORRECTION_ROUTES } from './correction';
 import { TARIFF_EDITOR_ROUTES } from './tariff-editor';
 
-export const AREA_ROUTES: RouteDoc[] = [...PORTFOLIO_ROUTES, ...TARIFF_EDITOR_ROUTES];
+export const AREA_ROUTES: RouteDoc[] = [...PORTFOLIO_ROUTES, ...CORRECTION_ROUTES, ...TARIFF_EDITOR_ROUTES];

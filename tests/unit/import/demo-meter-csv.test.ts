@@ -110,7 +110,7 @@ describe('demo bills', () => {
     expect(r.bills.map((b) => b.powerFactor)).toEqual(bills.map((b) => b.powerFactor));
   });
 
-  it('monthly average PF of each plant lies between 0.78 and 0.90 lagging (demo brief)', () => {
+  it('monthly average PF of each plant lies between 0.78 and 0.90 lagging (the demo plants' design target)', () => {
     for (const site of DEMO_METER_SITES) for (const b of demoBills(site)) expect(b.powerFactor).toBeGreaterThanOrEqual(0.78), expect(b.powerFactor).toBeLessThanOrEqual(0.9);
   });
 

@@ -222,6 +222,16 @@ localDay('America/Chicago', '2025-03-09', 'dst-spring-forward-chicago.csv', 'Ame
 localDay('Australia/Sydney', '2025-04-06', 'dst-fall-back-sydney.csv', 'Australia/Sydney local time on the 25-hour day clocks go back (southern hemisphere, April).', 'clocks-back', 25);
 localDay('Australia/Sydney', '2025-10-05', 'dst-spring-forward-sydney.csv', 'Australia/Sydney local time on the 23-hour day clocks go forward (October).', 'clocks-forward', 23);
 {
+  // Interval-ending local stamps through the fall-back: 01:00-01:45 appear twice, the first pass in CDT.
+  const zone = 'America/Chicago';
+  const start = DateTime.fromISO('2025-11-02T00:00', { zone }).toMillis();
+  const rows = Array.from({ length: 100 }, (_, k) => `${DateTime.fromMillis(start + (k + 1) * Q, { zone }).toFormat('yyyy-MM-dd HH:mm')},${kwh(k)},${lag(k)},0`);
+  meter('dst-fall-back-chicago-ending.csv', [HEADER.replace('Interval start', 'Interval end'), ...rows].join('\n') + '\n', 'America/Chicago local interval-ending stamps on the fall-back day: 100 quarter-hours, the last ending at 00:00 the next day.', { ...STD_MAPPING, timestamp: { column: 'Interval end', format: 'iso', zone: 'local', timeZone: zone, stampAt: 'end' } }, {
+    ok: true,
+    meters: [okMeter(100, start, 15, ['dst-repeated-hour'], { dstDays: [{ localDate: '2025-11-02', kind: 'clocks-back', hours: 25, expectedIntervals: 100, presentIntervals: 100 }], repeatedHourStamps: 8, readAsEarlierOffset: 4 })],
+  });
+}
+{
   const rows = ['2025-03-09 01:30', '2025-03-09 01:45', '2025-03-09 02:15', '2025-03-09 03:00'].map((t, k) => `${t},${kwh(k)},${lag(k)},0`);
   meter('dst-nonexistent-stamp.csv', [HEADER, ...rows].join('\n') + '\n', '02:15 on the Chicago spring-forward day (line 4) does not exist.', { ...STD_MAPPING, timestamp: { column: 'Interval start', format: 'iso', zone: 'local', timeZone: 'America/Chicago', stampAt: 'start' } }, {
     ok: false,

@@ -80,6 +80,7 @@ const ERROR_TEXT: Record<number, string> = {
   413: 'Body too large',
   415: 'Wrong body or file type',
   422: 'The file or data cannot be used; `error.problems` lists rows',
+  502: 'The payment provider did not answer; nothing was charged',
 };
 
 /** Builds the OpenAPI 3.1 document. */

@@ -28,3 +28,41 @@ export function passwordResetMail(name: string, url: string): MailMessage {
 export function invitationMail(inviter: string, workspace: string, roleLabel: string, url: string): MailMessage {
   return layout(`${inviter} invited you to ${workspace} on Varledger`, [`${inviter} asks you to join the workspace "${workspace}" as ${roleLabel}.`, 'Open the link, sign in or create an account with this e-mail address, and accept. The invitation lasts 7 days.'], { label: 'Review the invitation', url }, 'If you do not know this workspace, ignore this message.');
 }
+
+export type ReceiptMailInput = {
+  receiptNumber: string;
+  buyerName: string;
+  workspaceName: string;
+  sites: string[];
+  /** Display strings, already formatted in the purchase currency. */
+  unitPrice: string;
+  total: string;
+  paidOn: string;
+  purchasesUrl: string;
+};
+
+export function receiptMail(r: ReceiptMailInput): MailMessage {
+  const count = r.sites.length === 1 ? 'one Site audit' : `${r.sites.length} Site audits`;
+  return layout(
+    `Varledger receipt ${r.receiptNumber}: ${count} paid`,
+    [
+      `Hello ${r.buyerName || 'there'},`,
+      `Thank you: your payment for ${count} in the workspace "${r.workspaceName}" has arrived. The findings of these sites are now final and they are marked Audited.`,
+      `Receipt number: ${r.receiptNumber}`,
+      `Paid on: ${r.paidOn}`,
+      ...r.sites.map((s) => `Site audit, ${s}: ${r.unitPrice}`),
+      `Total paid: ${r.total}`,
+    ],
+    { label: 'See your purchases', url: r.purchasesUrl },
+    'Keep this message for your records. The Purchases page of the workspace shows every receipt.',
+  );
+}
+
+export function reportIssuedMail(r: { recipientName: string; siteName: string; workspaceName: string; issuedBy: string; reportUrl: string }): MailMessage {
+  return layout(
+    `Savings report issued for ${r.siteName}`,
+    [`Hello ${r.recipientName || 'there'},`, `${r.issuedBy} issued the Savings report for ${r.siteName} in the workspace "${r.workspaceName}". Its figures are frozen as issued; the site is now marked Reported.`],
+    { label: 'Open the Savings report', url: r.reportUrl },
+    'The figures are estimates from interval averages. Capacitor banks must be designed and installed by qualified persons under local electrical codes and the utility’s rules.',
+  );
+}

@@ -14,7 +14,7 @@ export interface EvaluateOptions {
   history?: readonly PriorPeriod[];
   /** Bill amounts per period id, for rules whose base is an entered amount. */
   amounts?: Readonly<Record<string, EnteredAmounts>>;
-  /** Format explanations (default true); the sizing search turns this off. */
+  /** Format explanations and data-quality warnings (default true); the sizing search turns this off. */
   explain?: boolean;
   /**
    * Ratchet memory of earlier evaluated periods by rule id (from a previous
@@ -122,7 +122,7 @@ export function evaluatePrepared(prep: PreparedTariff, correction?: ReactiveCorr
     });
     const periodTotal = rules.reduce((s, r) => s + r.amount, 0);
     total += periodTotal;
-    return { periodId: period.id, label: period.label, total: periodTotal, rules, warnings: periodWarnings(period, readAggregate(plan, p, 0), plan.series.intervalMinutes) };
+    return { periodId: period.id, label: period.label, total: periodTotal, rules, warnings: explain ? periodWarnings(period, readAggregate(plan, p, 0), plan.series.intervalMinutes) : [] };
   });
   const memory = Object.fromEntries(tariff.rules.map((rule, r) => [rule.id, memories[r]]));
   return { tariffName: tariff.name, currency: tariff.currency, periods, total, byRule, memory };

@@ -38,19 +38,20 @@ export interface RulePf {
   pf: number | null;
   /** PF before rounding. */
   rawPf: number | null;
-  /** Text for explanations, e.g. "Average PF 0.871 (lagging kvarh)". */
-  text: string;
+  /** Text for explanations, e.g. "Average PF (lagging kvarh) 0.871"; lazy like all explanation text. */
+  text: () => string;
 }
 
 /** Measures the PF a rule compares, on its PF and kvarh bases, with its rounding. */
 export function rulePf(agg: WindowAggregate, pfBasis: PfBasis, kvarhBasis: KvarhBasis, rounding?: PfRounding): RulePf {
   const raw = pfBasis === 'average' ? averagePf(agg.kwh, kvarhOnBasis(agg, kvarhBasis)) : powerFactor(agg.peakKw, peakKvarOnBasis(agg, kvarhBasis));
   const pf = raw === null ? null : rounding ? roundTo(raw, rounding.decimals, rounding.mode) : raw;
-  const label = pfBasis === 'average' ? `Average PF` : `PF at the kW peak`;
-  let text = `${label} (${kvarhBasis} kvarh)`;
-  if (raw !== null && pf !== null) {
-    text += rounding && pf !== raw ? ` ${raw.toFixed(4)} rounded ${rounding.mode} to ${pf.toFixed(rounding.decimals)}` : ` ${pfText(pf)}`;
-  }
+  const text = () => {
+    const label = pfBasis === 'average' ? 'Average PF' : 'PF at the kW peak';
+    const head = `${label} (${kvarhBasis} kvarh)`;
+    if (raw === null || pf === null) return head;
+    return rounding && pf !== raw ? `${head} ${raw.toFixed(4)} rounded ${rounding.mode} to ${pf.toFixed(rounding.decimals)}` : `${head} ${pfText(pf)}`;
+  };
   return { pf, rawPf: raw, text };
 }
 

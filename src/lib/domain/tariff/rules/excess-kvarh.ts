@@ -46,23 +46,23 @@ export function evaluateExcessKvarh(rule: ExcessKvarhRule, input: RuleInput): Ru
   const pf = averagePf(agg.kwh, kvarh);
   const quantities: Record<string, number | null> = { kwh: agg.kwh, kvarh, kFactor: k, allowedKvarh: allowed, billableKvarh: billable, pf };
   let unitRate = 0;
-  let priceText: string;
+  let priceText: () => string;
   if (rule.pricing.kind === 'flat') {
     unitRate = rule.pricing.ratePerKvarh;
-    priceText = rate(unitRate, currency, 'kvarh');
+    priceText = () => rate(unitRate, currency, 'kvarh');
   } else {
     const band = pf === null ? undefined : [...rule.pricing.bands].sort((a, b) => a.pfBelow - b.pfBelow).find((b) => isBelow(pf, b.pfBelow));
     unitRate = band?.ratePerKvarh ?? 0;
-    priceText = band ? `${rate(unitRate, currency, 'kvarh')} (band PF below ${band.pfBelow})` : 'no band applies';
+    priceText = () => (band ? `${rate(unitRate, currency, 'kvarh')} (band PF below ${band.pfBelow})` : 'no band applies');
     quantities.bandPfBelow = band?.pfBelow ?? null;
   }
   const amount = billable * unitRate;
   quantities.ratePerKvarh = unitRate;
-  const pfPart = pf === null ? 'no import' : `average PF ${pf.toFixed(3)}`;
+  const pfPart = () => (pf === null ? 'no import' : `average PF ${pf.toFixed(3)}`);
   return {
     amount,
     status: amount > 0 ? 'charge' : 'none',
     quantities,
-    explain: () => `${num(kvarh, 0)} kvarh (${rule.kvarhBasis}) against ${num(agg.kwh, 0)} kWh, ${pfPart}: allowance ${num(agg.kwh, 0)} kWh × ${allowanceText(rule.allowance)} = ${num(allowed, 0)} kvarh; billable ${num(billable, 0)} kvarh × ${priceText} = ${money(amount, currency)}.`,
+    explain: () => `${num(kvarh, 0)} kvarh (${rule.kvarhBasis}) against ${num(agg.kwh, 0)} kWh, ${pfPart()}: allowance ${num(agg.kwh, 0)} kWh × ${allowanceText(rule.allowance)} = ${num(allowed, 0)} kvarh; billable ${num(billable, 0)} kvarh × ${priceText()} = ${money(amount, currency)}.`,
   };
 }

@@ -29,11 +29,11 @@ export function evaluateLeadingKvarh(rule: LeadingKvarhRule, input: RuleInput): 
   const { agg, currency } = input;
   const kvarh = rule.condition === 'zero-kw-only' ? agg.kvarhLeadZeroKw : agg.kvarhLead;
   const amount = kvarh * rule.ratePerKvarh;
-  const scope = rule.condition === 'zero-kw-only' ? `leading kvarh while kW was zero (${agg.zeroKwIntervals} intervals)` : 'leading kvarh';
+  const scope = () => rule.condition === 'zero-kw-only' ? `leading kvarh while kW was zero (${agg.zeroKwIntervals} intervals)` : 'leading kvarh';
   return {
     amount,
     status: amount > 0 ? 'charge' : 'none',
     quantities: { leadingKvarh: kvarh, ratePerKvarh: rule.ratePerKvarh, leadingIntervals: agg.leadingIntervals },
-    explain: () => `${num(kvarh)} ${scope} × ${rate(rule.ratePerKvarh, currency, 'kvarh')} = ${money(amount, currency)}.`,
+    explain: () => `${num(kvarh)} ${scope()} × ${rate(rule.ratePerKvarh, currency, 'kvarh')} = ${money(amount, currency)}.`,
   };
 }

@@ -64,10 +64,10 @@ export function evaluatePfBillingDemand(rule: PfBillingDemandRule, input: RuleIn
   const adjustedKw = kw(demandKw * applied);
   const parts: (() => string)[] = [];
   if (factor.value > 1) {
-    parts.push(() => `${measured.text} is below the ${rule.targetPf} target: billing demand = ${factor.text(demandKw)} = ${num(kw(demandKw * factor.value))} kW`);
+    parts.push(() => `${measured.text()} is below the ${rule.targetPf} target: billing demand = ${factor.text(demandKw)} = ${num(kw(demandKw * factor.value))} kW`);
     if (applied < factor.value) parts.push(() => `capped at +${pct(rule.maxIncreasePct ?? 0)} = ${num(adjustedKw)} kW`);
   } else {
-    parts.push(() => `${measured.text} is not below the ${rule.targetPf} target: billing demand stays ${num(demandKw)} kW`);
+    parts.push(() => `${measured.text()} is not below the ${rule.targetPf} target: billing demand stays ${num(demandKw)} kW`);
   }
 
   let billedKw = adjustedKw;
@@ -77,17 +77,17 @@ export function evaluatePfBillingDemand(rule: PfBillingDemandRule, input: RuleIn
     const r = rule.ratchet;
     const floorRaw = ratchetFloor(input.memory, 'demandKw', r.lookbackPeriods);
     const floorAdj = ratchetFloor(input.memory, 'adjustedKw', r.lookbackPeriods);
-    const scope = `${floorRaw.used} of ${r.lookbackPeriods} earlier periods available`;
+    const scope = () => `${floorRaw.used} of ${r.lookbackPeriods} earlier periods available`;
     if (r.order === 'adjust-then-ratchet') {
       const floor = kw(r.fraction * floorAdj.max);
       billedKw = Math.max(adjustedKw, floor);
       withoutPfKw = Math.max(demandKw, kw(r.fraction * floorRaw.max));
-      parts.push(() => `ratchet ${num(r.fraction * 100, 0)} % of the highest adjusted demand (${scope}) = ${num(floor)} kW, so billing demand = ${num(billedKw)} kW; without the PF adjustment it would be ${num(withoutPfKw)} kW`);
+      parts.push(() => `ratchet ${num(r.fraction * 100, 0)} % of the highest adjusted demand (${scope()}) = ${num(floor)} kW, so billing demand = ${num(billedKw)} kW; without the PF adjustment it would be ${num(withoutPfKw)} kW`);
     } else {
       const base = Math.max(demandKw, kw(r.fraction * floorRaw.max));
       billedKw = kw(base * applied);
       withoutPfKw = base;
-      parts.push(() => `ratchet first: max(${num(demandKw)} kW, ${num(r.fraction * 100, 0)} % of the highest earlier demand (${scope})) = ${num(base)} kW, adjusted x ${applied.toFixed(4)} = ${num(billedKw)} kW`);
+      parts.push(() => `ratchet first: max(${num(demandKw)} kW, ${num(r.fraction * 100, 0)} % of the highest earlier demand (${scope()})) = ${num(base)} kW, adjusted x ${applied.toFixed(4)} = ${num(billedKw)} kW`);
     }
     quantities.ratchetFloorKw = r.fraction * floorRaw.max;
     quantities.ratchetPeriodsUsed = floorRaw.used;

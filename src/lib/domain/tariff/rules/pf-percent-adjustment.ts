@@ -61,7 +61,7 @@ export function evaluatePfPercentAdjustment(rule: PfPercentAdjustmentRule, input
   const { agg, currency } = input;
   const base = baseAmount(rule, input);
   if (base.amount === null) {
-    return { amount: 0, status: 'needs-input', quantities: { base: null }, explain: () => `Enter the ${base.text} for this period to compute the PF adjustment.` };
+    return { amount: 0, status: 'needs-input', quantities: { base: null }, explain: () => `Enter the ${base.text()} for this period to compute the PF adjustment.` };
   }
   const baseValue = base.amount;
   const measured = rulePf(agg, rule.pfBasis, rule.kvarhBasis, rule.pfRounding);
@@ -80,7 +80,7 @@ export function evaluatePfPercentAdjustment(rule: PfPercentAdjustmentRule, input
       amount,
       status: amount > 0 ? 'charge' : 'none',
       quantities,
-      explain: () => `${measured.text} is below the ${rule.thresholdPf} threshold by ${rawSteps.toFixed(2)} steps of ${rule.stepPf}, counted as ${steps}: surcharge ${breakdown} = ${pct(percent)} of ${base.text} ${money(baseValue, currency)} = ${money(amount, currency)}.`,
+      explain: () => `${measured.text()} is below the ${rule.thresholdPf} threshold by ${rawSteps.toFixed(2)} steps of ${rule.stepPf}, counted as ${steps}: surcharge ${breakdown()} = ${pct(percent)} of ${base.text()} ${money(baseValue, currency)} = ${money(amount, currency)}.`,
     };
   }
   const c = rule.credit;
@@ -94,34 +94,34 @@ export function evaluatePfPercentAdjustment(rule: PfPercentAdjustmentRule, input
       amount,
       status: amount < 0 ? 'credit' : 'none',
       quantities,
-      explain: () => `${measured.text} is above ${c.abovePf} by ${rawSteps.toFixed(2)} steps, counted as ${steps}: credit ${steps} × ${pct(c.pctPerStep)}${percent < steps * c.pctPerStep ? ` capped at ${pct(c.maxPct)}` : ''} = ${pct(percent)} of ${base.text} ${money(baseValue, currency)} = ${money(amount, currency)}.`,
+      explain: () => `${measured.text()} is above ${c.abovePf} by ${rawSteps.toFixed(2)} steps, counted as ${steps}: credit ${steps} × ${pct(c.pctPerStep)}${percent < steps * c.pctPerStep ? ` capped at ${pct(c.maxPct)}` : ''} = ${pct(percent)} of ${base.text()} ${money(baseValue, currency)} = ${money(amount, currency)}.`,
     };
   }
-  return { amount: 0, status: 'none', quantities, explain: () => `${measured.text} is not below the ${rule.thresholdPf} threshold: no adjustment.` };
+  return { amount: 0, status: 'none', quantities, explain: () => `${measured.text()} is not below the ${rule.thresholdPf} threshold: no adjustment.` };
 }
 
-function surchargePercent(rule: PfPercentAdjustmentRule, steps: number): { percent: number; breakdown: string } {
+function surchargePercent(rule: PfPercentAdjustmentRule, steps: number): { percent: number; breakdown: () => string } {
   let remaining = steps;
   let top = rule.thresholdPf;
   let percent = 0;
-  const parts: string[] = [];
+  const parts: [number, number][] = [];
   for (const tier of rule.tiers) {
     if (remaining <= 0) break;
     const capacity = tier.downToPf === undefined ? Number.POSITIVE_INFINITY : roundSteps((top - tier.downToPf) / rule.stepPf, 'nearest');
     const take = Math.min(remaining, capacity);
     percent += take * tier.pctPerStep;
-    parts.push(`${Number(take.toFixed(4))} × ${pct(tier.pctPerStep)}`);
+    parts.push([take, tier.pctPerStep]);
     remaining -= take;
     if (tier.downToPf !== undefined) top = tier.downToPf;
   }
-  return { percent, breakdown: parts.join(' + ') || '0' };
+  return { percent, breakdown: () => parts.map(([take, p]) => `${Number(take.toFixed(4))} × ${pct(p)}`).join(' + ') || '0' };
 }
 
-function baseAmount(rule: PfPercentAdjustmentRule, input: RuleInput): { amount: number | null; text: string } {
+function baseAmount(rule: PfPercentAdjustmentRule, input: RuleInput): { amount: number | null; text: () => string } {
   const b = rule.base;
-  if (b.source === 'energy-rate') return { amount: input.agg.kwh * b.ratePerKwh, text: `energy charge (${num(input.agg.kwh, 0)} kWh × ${rate(b.ratePerKwh, input.currency, 'kWh')})` };
-  if (b.source === 'demand-rate') return { amount: input.agg.peakKw * b.ratePerKw, text: `demand charge (${num(input.agg.peakKw)} kW × ${rate(b.ratePerKw, input.currency, 'kW')})` };
+  if (b.source === 'energy-rate') return { amount: input.agg.kwh * b.ratePerKwh, text: () => `energy charge (${num(input.agg.kwh, 0)} kWh × ${rate(b.ratePerKwh, input.currency, 'kWh')})` };
+  if (b.source === 'demand-rate') return { amount: input.agg.peakKw * b.ratePerKw, text: () => `demand charge (${num(input.agg.peakKw)} kW × ${rate(b.ratePerKw, input.currency, 'kW')})` };
   const label = { energyCharge: 'energy charge', demandCharge: 'demand charge', totalBill: 'bill total' }[b.field];
   const v = input.amounts?.[b.field];
-  return { amount: v === undefined ? null : v, text: label };
+  return { amount: v === undefined ? null : v, text: () => label };
 }

@@ -92,10 +92,16 @@ function median(xs: number[]): number {
   return s[Math.floor(s.length / 2)];
 }
 
-const RUNS = 5;
+const RUNS = 7;
+
+/** CPU milliseconds (user + system) of this process since `from`: steadier than wall time on a shared machine. */
+function cpuMs(from: NodeJS.CpuUsage): number {
+  const d = process.cpuUsage(from);
+  return (d.user + d.system) / 1000;
+}
 
 async function main() {
-  console.log(`Import bench: median of ${RUNS} runs after one warm-up run each; papaparse alone = its own Node-stream parser, no typing, same 64 KiB chunks.`);
+  console.log(`Import bench: median of ${RUNS} runs after one warm-up run each; papaparse alone = its own Node-stream parser, no typing, same 64 KiB chunks. Ratio = median of per-run CPU-time ratios (full / papaparse).`);
   const cases: [string, number, boolean][] = [
     ['15-min year, ISO UTC', 15, false],
     ['1-min year, ISO UTC', 1, false],
@@ -107,34 +113,40 @@ async function main() {
     const delimiter = local ? ';' : ',';
     await papaAlone(file.chunks, delimiter);
     await parseMeterCsv(file.chunks, m);
-    const papaTimes: number[] = [];
-    const fullTimes: number[] = [];
+    const papaWall: number[] = [];
+    const fullWall: number[] = [];
+    const ratios: number[] = [];
     let papaRows = 0;
     let n = 0;
     let peakGrowth = 0;
     for (let run = 0; run < RUNS; run++) {
+      let c = process.cpuUsage();
       let t = performance.now();
       papaRows = await papaAlone(file.chunks, delimiter);
-      papaTimes.push(performance.now() - t);
+      papaWall.push(performance.now() - t);
+      const papaCpu = cpuMs(c);
       global.gc?.();
       const rss0 = process.memoryUsage().rss;
       let peak = rss0;
       const timer = setInterval(() => (peak = Math.max(peak, process.memoryUsage().rss)), 10);
+      c = process.cpuUsage();
       t = performance.now();
       const result = await parseMeterCsv(file.chunks, m);
-      fullTimes.push(performance.now() - t);
+      fullWall.push(performance.now() - t);
+      ratios.push(cpuMs(c) / papaCpu);
       clearInterval(timer);
       peak = Math.max(peak, process.memoryUsage().rss);
       peakGrowth = Math.max(peakGrowth, peak - rss0);
       if (!result.ok) throw new Error(`bench import failed: ${result.problems[0]?.message}`);
       n = result.meters[0].series.stamps.length;
     }
-    const papaMs = median(papaTimes);
-    const fullMs = median(fullTimes);
+    const papaMs = median(papaWall);
+    const fullMs = median(fullWall);
     console.log(
-      `${label}: ${file.rows.toLocaleString('en-US')} rows, ${(file.bytes / 1e6).toFixed(1)} MB | papaparse alone ${papaMs.toFixed(0)} ms (${Math.round((papaRows / papaMs) * 1000).toLocaleString('en-US')} rows/s) | full parse ${fullMs.toFixed(0)} ms (${Math.round((n / fullMs) * 1000).toLocaleString('en-US')} rows/s) | ratio ${(fullMs / papaMs).toFixed(2)}x | peak RSS growth during a full parse ${(peakGrowth / 1e6).toFixed(0)} MB`,
+      `${label}: ${file.rows.toLocaleString('en-US')} rows, ${(file.bytes / 1e6).toFixed(1)} MB | papaparse alone ${papaMs.toFixed(0)} ms (${Math.round((papaRows / papaMs) * 1000).toLocaleString('en-US')} rows/s) | full parse ${fullMs.toFixed(0)} ms (${Math.round((n / fullMs) * 1000).toLocaleString('en-US')} rows/s) | ratio ${median(ratios).toFixed(2)}x | peak RSS growth during a full parse ${(peakGrowth / 1e6).toFixed(0)} MB`,
     );
   }
+  if (!global.gc) console.log('(Run with `npx tsx --expose-gc src/scripts/bench-import.ts` to collect garbage before each measured parse; RSS growth is then steadier.)');
 }
 
 void main();

@@ -3,6 +3,8 @@ import { aggregate, type ReactiveCorrection } from '../power/aggregate-kernel';
 import { createAggregationPlan, type AggregationPlan } from '../power/aggregation-plan';
 import { readAggregate, type WindowAggregate } from '../power/window-aggregate';
 import type { IntervalSeries } from '../series/interval-series';
+import type { Issue } from '../result';
+import { demandWindowProblem } from '../power/demand-blocks';
 import { describeWindow, type TouWindow } from './tou-window';
 import type { EnteredAmounts, RuleMemory, RuleOutcome } from './rule-contract';
 import { evaluateRule, ruleTypeLabel, type TariffRule } from './rule-registry';
@@ -64,6 +66,16 @@ export interface PreparedTariff {
   ruleWindow: number[];
   /** Window description of each rule, null for all hours. */
   windowLabels: (string | null)[];
+}
+
+/**
+ * Problems that stop a tariff from being evaluated on a series (today: a demand window
+ * that is not a whole multiple of the meter interval). Check before `evaluateTariff`,
+ * which throws a RangeError with the same message.
+ */
+export function tariffDataProblems(tariff: Tariff, series: Pick<IntervalSeries, 'intervalMinutes'>): Issue[] {
+  const problem = demandWindowProblem(tariff.demandWindowMinutes ?? series.intervalMinutes, series.intervalMinutes);
+  return problem ? [{ code: 'demand-window-mismatch', message: `${problem} Change the tariff's demand window or load data at a finer interval.` }] : [];
 }
 
 /** Binds a parsed tariff to a series and periods: windows, demand readings, peaks. */

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { z } from 'zod';
-import { billingPeriods, evaluateTariff, monthlyPeriods, parseTariff, RULE_TYPES, tariffSchema, tariffVersionOn, unwrap, type TariffInput } from '../../../../src/lib/domain';
+import { billingPeriods, evaluateTariff, monthlyPeriods, parseTariff, RULE_TYPES, tariffDataProblems, tariffSchema, tariffVersionOn, unwrap, type TariffInput } from '../../../../src/lib/domain';
 import { seriesByTime } from '../support/factories';
 
 const HOUR = 3_600_000;
@@ -138,5 +138,17 @@ describe('tariff schema', () => {
   ])('version in force on %s', (date, name) => {
     const v = (n: string, effectiveFrom: string) => tariffWith([], { name: n, effectiveFrom });
     expect(tariffVersionOn([v('v2025b', '2025-10-01'), v('v2025', '2025-01-01')], date)?.name ?? null).toBe(name);
+  });
+});
+
+describe('tariff against the data', () => {
+  it.each([
+    [15, 30, 0, 'common practice: 30-min demand from 15-min data'],
+    [15, 15, 0, 'common practice: demand on the meter interval'],
+    [30, 15, 1, 'common practice: a 15-min window cannot be formed from 30-min data'],
+    [15, 20, 1, 'common practice: a 20-min window is not a multiple of 15 min'],
+  ])('%s-min data, %s-min demand window: %s problem(s)', (intervalMinutes, demandWindowMinutes, count) => {
+    const t = unwrap(parseTariff({ name: 'T', currency: 'USD', demandWindowMinutes, rules: [] }));
+    expect(tariffDataProblems(t, { intervalMinutes })).toHaveLength(count);
   });
 });

@@ -1,6 +1,6 @@
 import { expectedIntervals, type Period } from '../periods/period';
 import { periodRanges } from '../periods/period-ranges';
-import type { IntervalSeries } from '../series/interval-series';
+import { SeriesFlag, type IntervalSeries } from '../series/interval-series';
 import { ZERO_KWH } from './aggregate-fields';
 import { aggregate } from './aggregate-kernel';
 import { createAggregationPlan } from './aggregation-plan';
@@ -45,7 +45,7 @@ export interface PeriodMetrics {
   peakKvaAtMs: number | null;
   maxKvar: number;
   maxKvarAtMs: number | null;
-  /** Lowest PF of any import interval (zero-kW and export intervals excluded). */
+  /** Lowest PF of any import interval (zero-kW, export and no-kvarh intervals excluded). */
   minIntervalPf: number | null;
   minIntervalPfAtMs: number | null;
   minIntervalPfSense: PfSense;
@@ -82,6 +82,9 @@ export function computeMetrics(series: IntervalSeries, periods: readonly Period[
     const present = a.importIntervals + a.zeroKwIntervals + a.exportIntervals;
     const expected = expectedIntervals(period, series.intervalMinutes);
     const net = a.kvarhLag - a.kvarhLead;
+    // Without any kvarh reading a PF would read 1.000 by accident: report none instead.
+    const hasReactive = a.reactiveMissingIntervals < a.importIntervals + a.zeroKwIntervals + a.exportIntervals;
+    const pfOrNull = (v: number | null) => (hasReactive ? v : null);
     return {
       periodId: period.id,
       label: period.label,
@@ -93,14 +96,14 @@ export function computeMetrics(series: IntervalSeries, periods: readonly Period[
       kvarhLag: a.kvarhLag,
       kvarhLead: a.kvarhLead,
       kvarhNet: net,
-      pfAvgLagging: averagePf(a.kwh, a.kvarhLag),
-      pfAvgNet: averagePf(a.kwh, net),
+      pfAvgLagging: pfOrNull(averagePf(a.kwh, a.kvarhLag)),
+      pfAvgNet: pfOrNull(averagePf(a.kwh, net)),
       pfAvgNetSense: pfSense(net),
-      pfAvgAbsolute: averagePf(a.kwh, a.kvarhLag + a.kvarhLead),
+      pfAvgAbsolute: pfOrNull(averagePf(a.kwh, a.kvarhLag + a.kvarhLead)),
       peakKw: a.peakKw,
       peakAtMs: a.peakAtMs,
       peakKvar: a.peakKvar,
-      peakPf: powerFactor(a.peakKw, a.peakKvar),
+      peakPf: pfOrNull(powerFactor(a.peakKw, a.peakKvar)),
       peakPfSense: pfSense(a.peakKvar),
       peakKva: a.peakKva,
       peakKvaAtMs: a.peakKvaAtMs,
@@ -131,7 +134,8 @@ function intervalPfStats(series: IntervalSeries, from: number, to: number, thres
   let below = 0;
   for (let i = from; i < to; i++) {
     const e = series.kwh[i];
-    if (!(e > ZERO_KWH)) continue;
+    // Zero-kW and export intervals have no PF; an interval without kvarh has an unknown one.
+    if (!(e > ZERO_KWH) || (series.flags[i] & SeriesFlag.reactiveMissing) !== 0) continue;
     const q = series.kvarhLag[i] - series.kvarhLead[i];
     const pf = e / Math.sqrt(e * e + q * q);
     if (pf < threshold) below++;

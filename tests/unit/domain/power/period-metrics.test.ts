@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { billingPeriods, computeMetrics, unwrap } from '../../../../src/lib/domain';
+import { billingPeriods, buildSeries, computeMetrics, unwrap } from '../../../../src/lib/domain';
 import { constantSeries, seriesFrom } from '../support/factories';
 
 // Invented readings, 15-min intervals from midnight UTC on 6 Jan 2025, as [kWh, signed kvarh]:
@@ -111,5 +111,20 @@ describe('completeness across a clock change', () => {
     expect(m.presentIntervals).toBe(count);
     expect(m.completeness).toBe(1);
     expect(m.kwh).toBeCloseTo(25 * count, 9);
+  });
+});
+
+describe('missing reactive data', () => {
+  it('a period without any kvarh reading has no PF, not a PF of 1 (common practice: never fill a missing channel)', () => {
+    const s = unwrap(buildSeries({ intervalMinutes: 15, stamps: [T0, T0 + 900_000], active: [25, 30], reactive: { kind: 'none' } }));
+    const [m] = computeMetrics(s, day);
+    expect([m.pfAvgLagging, m.pfAvgNet, m.pfAvgAbsolute, m.peakPf, m.minIntervalPf]).toEqual([null, null, null, null, null]);
+    expect(m.reactiveMissingIntervals).toBe(2);
+  });
+  it('intervals without kvarh are left out of interval PF statistics', () => {
+    const s = unwrap(buildSeries({ intervalMinutes: 15, stamps: [T0, T0 + 900_000], active: [25, 30], reactive: { kind: 'registers', lag: [15, Number.NaN], lead: [0, 0] } }));
+    const [m] = computeMetrics(s, day);
+    expect(m.minIntervalPf).toBeCloseTo(25 / Math.hypot(25, 15), 12);
+    expect(m.hoursBelowThreshold).toBe(0.25);
   });
 });

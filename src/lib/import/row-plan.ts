@@ -55,7 +55,7 @@ export class RowPlan {
     this.usable = this.resolveColumns(width, headerLine);
   }
 
-  private col(ref: ColumnRef, what: string, line: number, missing: [string, ColumnRef][]): number {
+  private col(ref: ColumnRef, what: string, missing: [string, ColumnRef][]): number {
     const i = this.header.find(ref);
     if (i < 0) missing.push([what, ref]);
     else this.maxIndex = Math.max(this.maxIndex, i);
@@ -64,7 +64,8 @@ export class RowPlan {
 
   private resolveColumns(width: number, line: number): boolean {
     const m = this.m;
-    if (width === 1 && this.neededColumns() > 1) {
+    // Every mapping needs at least a stamp and an active column, so one column means the wrong delimiter.
+    if (width === 1) {
       const cell = this.header.labels[0] ?? '';
       const other = [',', ';', '\t', '|'].find((d) => d !== m.delimiter && cell.includes(d));
       const hint = other ? ` The line contains ${DELIMITER_NAMES[other]}s: set the delimiter to ${DELIMITER_NAMES[other]}.` : ' Check the delimiter setting.';
@@ -72,22 +73,22 @@ export class RowPlan {
       return false;
     }
     const missing: [string, ColumnRef][] = [];
-    this.stampCol = this.col(m.timestamp.column, 'timestamp', line, missing);
-    if (m.timestamp.timeColumn !== undefined) this.timeCol = this.col(m.timestamp.timeColumn, 'time', line, missing);
-    if (m.meterIdColumn !== undefined) this.idCol = this.col(m.meterIdColumn, 'meter id', line, missing);
+    this.stampCol = this.col(m.timestamp.column, 'timestamp', missing);
+    if (m.timestamp.timeColumn !== undefined) this.timeCol = this.col(m.timestamp.timeColumn, 'time', missing);
+    if (m.meterIdColumn !== undefined) this.idCol = this.col(m.meterIdColumn, 'meter id', missing);
     for (const set of m.meters) {
       const r = set.reactive;
       const refs: [ColumnRef, string][] =
         r.kind === 'none' ? [] : r.kind === 'net' ? [[r.column, 'net reactive']] : r.kind === 'lagging-only' ? [[r.lag, 'lagging reactive']] : r.kind === 'lag-lead' ? [[r.lag, 'lagging reactive'], [r.lead, 'leading reactive']] : [[r.q1, 'Q1'], [r.q2, 'Q2'], [r.q3, 'Q3'], [r.q4, 'Q4']];
       this.sets.push({
         set,
-        active: this.col(set.active.column, 'active', line, missing),
+        active: this.col(set.active.column, 'active', missing),
         activeFactor: unitInfo(set.active.unit).toKilo * set.multiplier,
-        reactive: refs.map(([ref, what]) => this.col(ref, what, line, missing)),
+        reactive: refs.map(([ref, what]) => this.col(ref, what, missing)),
         reactiveFactor: r.kind === 'none' ? 0 : unitInfo(r.unit).toKilo * set.multiplier,
-        apparent: set.apparent ? this.col(set.apparent.column, 'kVA', line, missing) : -1,
+        apparent: set.apparent ? this.col(set.apparent.column, 'kVA', missing) : -1,
         apparentFactor: set.apparent ? unitInfo(set.apparent.unit).toKilo * set.multiplier : 0,
-        pf: set.powerFactor ? this.col(set.powerFactor.column, 'PF', line, missing) : -1,
+        pf: set.powerFactor ? this.col(set.powerFactor.column, 'PF', missing) : -1,
         rows: null,
       });
     }
@@ -105,10 +106,6 @@ export class RowPlan {
       }
     }
     return true;
-  }
-
-  private neededColumns(): number {
-    return 1 + this.m.meters.length;
   }
 
   /** Reads one data row into the meters' columns, adding a problem for every bad cell. */

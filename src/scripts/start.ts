@@ -8,6 +8,7 @@ import { applyMigrations } from '../lib/db/migrate';
 import { seedDemo } from '../lib/demo/seed';
 import { seedDemoData } from '../lib/demo/seed-data';
 import { seedDemoPurchases } from '../lib/demo/seed-purchases';
+import { seedDemoPlans } from '../lib/demo/seed-plans';
 import { DEMO_PASSWORD, DEMO_PEOPLE, DEMO_WORKSPACES } from '../lib/demo/scenario';
 import { ROLE_LABELS } from '../lib/auth/permissions';
 import { startMailSink, type MailSink } from './lib/mail-sink';
@@ -28,6 +29,7 @@ await applyMigrations(db);
 const seeded = await seedDemo(db);
 const data = await seedDemoData(db);
 await seedDemoPurchases(db);
+await seedDemoPlans(db);
 db.$client.close();
 
 let sink: MailSink | undefined;

@@ -12,6 +12,7 @@ import { applyMigrations } from '../../src/lib/db/migrate';
 import { seedDemo } from '../../src/lib/demo/seed';
 import { seedDemoData } from '../../src/lib/demo/seed-data';
 import { seedDemoPurchases } from '../../src/lib/demo/seed-purchases';
+import { seedDemoPlans } from '../../src/lib/demo/seed-plans';
 import { startMailSink } from '../../src/scripts/lib/mail-sink';
 import { startAppServer } from '../../src/scripts/lib/app-server';
 import { startPaymentFake } from '../../src/scripts/lib/payment-fake';
@@ -49,6 +50,7 @@ export default async function setup(project: TestProject) {
   await seedDemo(db);
   await seedDemoData(db);
   await seedDemoPurchases(db);
+  await seedDemoPlans(db);
   db.$client.close();
 
   const [smtpPort, webPort, appPort] = [await freePort(), await freePort(), await freePort()];

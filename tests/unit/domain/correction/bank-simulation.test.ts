@@ -21,7 +21,6 @@ import { switchedBankSchema } from '../../../../src/lib/domain';
 import { constantSeries, seriesByTime } from '../support/factories';
 
 const START = Date.UTC(2025, 0, 1);
-const HOUR = 3_600_000;
 const januaryOf = (s: { startMs: Float64Array; length: number }) => unwrap(monthlyPeriods({ fromMs: s.startMs[0], toMs: s.startMs[s.length - 1] + 1 }, 'UTC'));
 
 describe('fixed bank on a constant load', () => {

@@ -24,7 +24,7 @@ describe('every rule type explains its charge with the numbers filled in', () =>
     [{ type: 'excess-kvarh', id: 'd', allowance: { basis: 'ratio', kvarPerKw: 0.5 }, pricing: { kind: 'flat', ratePerKvarh: 0.01 } }, 100, ['30,000 kvarh (lagging) against 40,000 kWh', 'billable 10,000 kvarh × $0.01/kvarh'], 'common practice: (30,000 - 20,000) kvarh x $0.01'],
     [{ type: 'pf-percent-adjustment', id: 'e', base: { source: 'energy-rate', ratePerKwh: 0.1 }, thresholdPf: 0.85, tiers: [{ pctPerStep: 1 }] }, 200, ['counted as 5', '5 × 1 % = 5 %', '$4,000.00 = $200.00'], 'common practice: 5 steps x 1 % of $4,000'],
     [{ type: 'leading-kvarh', id: 'f', ratePerKvarh: 0.05, condition: 'zero-kw-only' }, 10, ['200.00 leading kvarh while kW was zero (12 intervals) × $0.05/kvarh = $10.00'], 'common practice: 200 kvarh x $0.05'],
-  ])('%j', (rule, amount, fragments) => {
+  ])('%j', (rule, amount, fragments, _source) => {
     const r = runRule(rule, agg);
     expect(r.amount).toBeCloseTo(amount, 6);
     for (const f of fragments) expect(r.explanation).toContain(f);

@@ -125,7 +125,6 @@ async function main() {
       papaRows = await papaAlone(file.chunks, delimiter);
       papaWall.push(performance.now() - t);
       const papaCpu = cpuMs(c);
-      global.gc?.();
       const rss0 = process.memoryUsage().rss;
       let peak = rss0;
       const timer = setInterval(() => (peak = Math.max(peak, process.memoryUsage().rss)), 10);
@@ -146,7 +145,7 @@ async function main() {
       `${label}: ${file.rows.toLocaleString('en-US')} rows, ${(file.bytes / 1e6).toFixed(1)} MB | papaparse alone ${papaMs.toFixed(0)} ms (${Math.round((papaRows / papaMs) * 1000).toLocaleString('en-US')} rows/s) | full parse ${fullMs.toFixed(0)} ms (${Math.round((n / fullMs) * 1000).toLocaleString('en-US')} rows/s) | ratio ${median(ratios).toFixed(2)}x | peak RSS growth during a full parse ${(peakGrowth / 1e6).toFixed(0)} MB`,
     );
   }
-  if (!global.gc) console.log('(Run with `npx tsx --expose-gc src/scripts/bench-import.ts` to collect garbage before each measured parse; RSS growth is then steadier.)');
+  console.log('(RSS growth is the peak RSS during a full parse minus RSS just before it, sampled every 10 ms: approximate, as memory freed by earlier runs is reused.)');
 }
 
 void main();

@@ -107,11 +107,13 @@ function run(intervalMinutes: number, sizes: number, repeats: number): void {
   const floor = time(() => floorLoop(series), 50);
   const res = time(full, repeats);
   const candidates = res.value.table.rows.length;
+  const seriesMb = [series.startMs, series.kwh, series.kvarhLag, series.kvarhLead, series.flags].reduce((sum, a) => sum + a.byteLength, 0) / 1e6;
   const best = res.value.table.rows[res.value.table.bestNpvIndex ?? 0];
   console.log(
     `${intervalMinutes}-min data, ${series.length.toLocaleString('en-US')} intervals, ${candidates} candidates (${sizes} sizes x fixed + 6-step switched):\n` +
       `  full evaluation ${res.ms.toFixed(1)} ms median, ${res.minMs.toFixed(1)} ms fastest (${Math.round((series.length / res.ms) * 1000).toLocaleString('en-US')} intervals/s of site data)\n` +
       `  floor loop (sum kWh) ${floor.ms.toFixed(3)} ms; ratio full/floor ${(res.ms / floor.ms).toFixed(0)}x; per candidate pass ${(res.ms / (candidates + 2) / floor.ms).toFixed(1)}x floor\n` +
+      `  memory: series arrays ${seriesMb.toFixed(1)} MB, process RSS ${(process.memoryUsage().rss / 1e6).toFixed(0)} MB\n` +
       `  baseline PF charge $${res.value.evaluation.total.toFixed(0)}/yr; best NPV: ${best.kind} ${best.kvar} kvar, saving $${best.annualSaving.toFixed(0)}/yr`,
   );
 }

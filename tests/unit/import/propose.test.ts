@@ -87,6 +87,13 @@ describe('proposeMapping', () => {
     expect(set?.powerFactor).toEqual({ column: 'PF' });
   });
 
+  it('finds a numeric meter-serial column in a stacked file', () => {
+    const head = 'Meter serial,Interval start,kWh,kvarh lag\n40017,2025-06-01T00:00Z,5,1\n40018,2025-06-01T00:00Z,6,1\n40017,2025-06-01T00:15Z,5,1\n40018,2025-06-01T00:15Z,6,1\n40017,2025-06-01T00:30Z,5,1\n40018,2025-06-01T00:30Z,6,1\n';
+    const p = proposeMapping(head);
+    expect(p.draft.meterIdColumn).toBe('Meter serial');
+    expect(p.mapping?.meters[0].active.column).toBe('kWh');
+  });
+
   it.each([
     ['', 'file-empty'],
     ['\0\0PK\u0003', 'file-binary'],

@@ -185,7 +185,13 @@ export function proposeMapping(headText: string, options: ProposeOptions = {}): 
   if (Object.keys(ts).length) draft.timestamp = ts as MeterMappingInput['timestamp'];
 
   // Meter-id column (stacked layout).
-  const idCol = columns.find((c) => c.role === null && c.kind === 'text' && (looksLikeMeterIdHeader(c.header) || new Set(data.map((r) => r[c.index - 1])).size < data.length / 2));
+  // A text column that names meters, or repeats a few values; a numeric one only when its header says so (meter serials).
+  const repeats = (c: ColumnProfile) => new Set(data.map((r) => r[c.index - 1])).size < data.length / 2;
+  const idCol = columns.find(
+    (c) =>
+      c.role === null &&
+      ((c.kind === 'text' && (looksLikeMeterIdHeader(c.header) || repeats(c))) || (c.kind === 'number' && looksLikeMeterIdHeader(c.header) && headerChannel(c.header) === null && repeats(c))),
+  );
   if (idCol) {
     idCol.role = 'meter-id';
     draft.meterIdColumn = ref(idCol.index - 1);

@@ -6,7 +6,7 @@
  * Typical flow for one site:
  *
  *   const series = unwrap(buildSeries({ intervalMinutes: 15, stamps, active: kwh, reactive: { kind: 'registers', lag, lead } }));
- *   const periods = unwrap(monthlyPeriods(spanOf(series), 'America/Chicago'));   // or billingPeriods(ranges, zone)
+ *   const periods = unwrap(monthlyPeriods(series, 'America/Chicago'));           // or billingPeriods(ranges, zone)
  *   const metrics = computeMetrics(series, periods, { demandWindowMinutes: 30 });
  *   const tariff = unwrap(parseTariff(storedJson));
  *   const charges = evaluateTariff(tariff, series, periods, { history });        // per period, per rule, explained
@@ -18,7 +18,7 @@
  * - Series: `buildSeries(input)` validates raw arrays into an `IntervalSeries` (typed arrays;
  *   kWh, lagging and leading kvarh, flags); `localStampsToUtc(stamps, opts)` reads local
  *   wall-clock stamps (interval start or end, `24:00`, the repeated fall-back hour).
- * - Periods: `monthlyPeriods(span, zone)` calendar months in an IANA zone (743/745-hour DST
+ * - Periods: `monthlyPeriods(seriesOrSpan, zone)` calendar months in an IANA zone (743/745-hour DST
  *   months); `billingPeriods(ranges, zone)` bill date ranges; `spanOf(series)`.
  * - Metrics: `computeMetrics(series, periods, opts)` -> `PeriodMetrics[]` (kWh, kvarh lag/lead/net,
  *   average PF on three bases, peak kW on the demand window with its kvar and PF, peak kVA,
@@ -37,6 +37,7 @@
  *   `compareCorrection(tariff, series, periods, plan)` before/after charges per period and rule;
  *   `sizingSearch(tariff, series, periods, opts)` -> `SizingTable` (rows with saving, capex,
  *   payback, NPV, IRR, leading hours; best NPV and shortest payback marked; textbook Qc);
+ *   `kvarRange(from, to, step)` for candidate sizes;
  *   formulas `kvarToCorrect`, `kvarPerKwMultiplier`, `correctedPf`, `voltageScale`,
  *   `lossReduction`, `releasedCapacityKva`, `economicPf`.
  * - Screening: `screenResonance(input)`, `screenResonanceSteps`, `detunedTuningOrder`,

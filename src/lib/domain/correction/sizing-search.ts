@@ -10,6 +10,13 @@ import { switchedBankSchema } from './bank-spec';
 import { fixedBankKvarhPerInterval, switchedBankCorrection } from './bank-kvarh';
 import { textbookEstimate, type TextbookEstimate } from './textbook-estimate';
 
+/** Bank sizes from `fromKvar` to `toKvar` inclusive in steps of `stepKvar`, for `sizesKvar`. */
+export function kvarRange(fromKvar: number, toKvar: number, stepKvar: number): number[] {
+  if (!(stepKvar > 0) || !(toKvar >= fromKvar) || !(fromKvar > 0)) throw new RangeError('Use a positive start, an end not below it and a positive step.');
+  const count = Math.floor((toKvar - fromKvar) / stepKvar + 1e-9) + 1;
+  return Array.from({ length: count }, (_, k) => Number((fromKvar + k * stepKvar).toFixed(6)));
+}
+
 export interface BankCosts {
   perKvar: number;
   fixedCost: number;

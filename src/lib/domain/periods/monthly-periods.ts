@@ -11,11 +11,12 @@ export interface Span {
 }
 
 /**
- * Calendar months in `zone` that overlap `span`, each from local midnight on the 1st
+ * Calendar months in `zone` that overlap a span (or a series' span), each from local midnight on the 1st
  * to local midnight on the 1st of the next month. Month lengths come from luxon, so
  * a month with a clock change has 743 or 745 hours.
  */
-export function monthlyPeriods(span: Span, zone: string): Result<Period[]> {
+export function monthlyPeriods(spanOrSeries: Span | SeriesSpanSource, zone: string): Result<Period[]> {
+  const span = 'startMs' in spanOrSeries ? spanOf(spanOrSeries) : spanOrSeries;
   if (!isKnownZone(zone)) return fail([{ code: 'zone-unknown', message: `Unknown time zone "${zone}". Use an IANA name such as America/Chicago.` }]);
   if (!(span.toMs > span.fromMs)) return ok([]);
   const periods: Period[] = [];
@@ -38,8 +39,15 @@ export function monthlyPeriods(span: Span, zone: string): Result<Period[]> {
   return ok(periods);
 }
 
+/** The fields of an `IntervalSeries` that fix its span. */
+export interface SeriesSpanSource {
+  startMs: Float64Array;
+  intervalMinutes: number;
+  length: number;
+}
+
 /** The span of instants a series covers, from its first start to its last end. */
-export function spanOf(series: { startMs: Float64Array; intervalMinutes: number; length: number }): Span {
+export function spanOf(series: SeriesSpanSource): Span {
   if (series.length === 0) return { fromMs: 0, toMs: 0 };
   return { fromMs: series.startMs[0], toMs: series.startMs[series.length - 1] + series.intervalMinutes * 60_000 };
 }

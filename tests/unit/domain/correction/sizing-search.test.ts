@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { evaluateTariff, kvarPerKwMultiplier, monthlyPeriods, parseTariff, simulateFixedBank, simulateSwitchedBank, sizingSearch, unwrap } from '../../../../src/lib/domain';
+import { evaluateTariff, kvarPerKwMultiplier, kvarRange, monthlyPeriods, parseTariff, simulateFixedBank, simulateSwitchedBank, sizingSearch, unwrap } from '../../../../src/lib/domain';
 import { seriesByTime } from '../support/factories';
 
 const START = Date.UTC(2025, 0, 1);
@@ -78,5 +78,15 @@ describe('sizing search', () => {
     expect(costly.rows[0].paybackYears).toBe(Number.POSITIVE_INFINITY);
     expect(costly.rows[0].shortestPayback).toBe(false);
     expect(costly.shortestPaybackIndex).toBeNull();
+  });
+});
+
+describe('candidate sizes', () => {
+  it.each([
+    [25, 100, 25, [25, 50, 75, 100], 'hand-computed: both ends included'],
+    [50, 120, 25, [50, 75, 100], 'hand-computed: the end is not passed'],
+    [0.5, 1.5, 0.5, [0.5, 1, 1.5], 'hand-computed: fractional steps without float drift'],
+  ])('from %s to %s by %s', (from, to, step, sizes) => {
+    expect(kvarRange(from, to, step)).toEqual(sizes);
   });
 });

@@ -88,3 +88,10 @@ describe('billing periods from bill dates (both dates inclusive)', () => {
     expect(r.ok).toBe(false);
   });
 });
+
+describe('months of a series', () => {
+  it('takes a series directly, covering its first to last interval (IANA tz database: Chicago is UTC-6 in January)', () => {
+    const series = { startMs: Float64Array.of(Date.UTC(2025, 0, 1, 6), Date.UTC(2025, 1, 1, 5, 45)), intervalMinutes: 15, length: 2 };
+    expect(unwrap(monthlyPeriods(series, 'America/Chicago')).map((m) => m.id)).toEqual(['2025-01']);
+  });
+});

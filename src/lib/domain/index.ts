@@ -27,7 +27,8 @@
  *   `truePowerFactor`.
  * - Tariffs: `tariffSchema` / `parseTariff(json)` (zod, JSON-storable, `.describe()`d);
  *   `tariffRuleSchema` the discriminated union of the six rule types listed in `RULE_TYPES`;
- *   `tariffVersionOn(versions, date)`; `evaluateTariff(tariff, series, periods, opts)` ->
+ *   `tariffVersionOn(versions, date)`; `tariffDataProblems(tariff, series)` (demand window vs data);
+ *   `evaluateTariff(tariff, series, periods, opts)` ->
  *   `TariffEvaluation` (total, per period, per rule, each with quantities and explanation);
  *   `prepareTariff` + `evaluatePrepared` to re-evaluate one binding under corrections;
  *   `evaluateTariffVersions(versions, series, periods)` picks the version per period and

@@ -88,6 +88,7 @@ export function aggregate(plan: AggregationPlan, correction: ReactiveCorrection 
   // Block demand partitions the intervals, so readings are closed inside this loop;
   // rolling demand overlaps, so it keeps prefix sums for a second pass.
   const fused = blocks.partition;
+  const oneToOne = fused && blocks.count === n && blocks.windowMinutes === series.intervalMinutes;
   const toKw = 60 / blocks.windowMinutes;
   const { end: blockEnd, kw: blockKw } = blocks;
   let b = 0;
@@ -125,10 +126,13 @@ export function aggregate(plan: AggregationPlan, correction: ReactiveCorrection 
     const net = lag - lead;
     // Export intervals are reported apart: their kvar stays out of demand readings too.
     const demandNet = e >= -ZERO_KWH ? net : 0;
+    const slot = intervalSlot[i];
     if (fused) {
       blockSum += demandNet;
-      if (i + 1 === bEnd) {
-        const bs = blockSlot[b];
+      // One reading per interval (demand window = meter interval) skips the block bookkeeping.
+      if (oneToOne || i + 1 === bEnd) {
+        if (oneToOne) b = i;
+        const bs = oneToOne ? slot : blockSlot[b];
         if (bs !== bCur) {
           if (bCur >= 0) mergeMaxima(patternAcc, bCur * FIELD_COUNT, maxQ, maxQb, maxSq, maxSqb);
           bCur = bs;
@@ -143,14 +147,15 @@ export function aggregate(plan: AggregationPlan, correction: ReactiveCorrection 
         }
         if (peakBlockFlag[b] === 1) blockKvar[b] = q;
         blockSum = 0;
-        b++;
-        bEnd = b < blocks.count ? blockEnd[b] : -1;
+        if (!oneToOne) {
+          b++;
+          bEnd = b < blocks.count ? blockEnd[b] : -1;
+        }
       }
     } else {
       running += demandNet;
       prefix[i + 1] = running;
     }
-    const slot = intervalSlot[i];
     if (slot !== current) {
       if (current >= 0) {
         const o = current * FIELD_COUNT;

@@ -1,0 +1,102 @@
+/**
+ * The form for one tariff version. Validation is the engine's own: zodResolver over
+ * TariffVersionSchema in the browser, the same schema on the server, whose 400 field
+ * paths are put back next to the fields.
+ */
+import { useMemo, useState } from 'react';
+import { FormProvider, useForm, useWatch } from 'react-hook-form';
+import { zodResolver } from '@hookform/resolvers/zod';
+import { useMutation } from '@tanstack/react-query';
+import type { z } from 'zod';
+import { api, ApiClientError } from '../api';
+import { TariffVersionSchema } from '@/lib/schemas/tariff';
+import { EditorCtx } from './form-context';
+import { SchemaField } from './schema-fields';
+import { RuleList } from './RuleList';
+import { labelFor } from './labels';
+import { PreviewPanel } from './PreviewPanel';
+import { usePreview } from './usePreview';
+
+type Input = z.input<typeof TariffVersionSchema>;
+type Output = z.output<typeof TariffVersionSchema>;
+
+// The version schema is the engine's tariff intersected with a required start date.
+// eslint-disable-next-line @typescript-eslint/no-explicit-any
+const parts = (TariffVersionSchema as any)._zod.def;
+const TARIFF_SHAPE = parts.left._zod.def.shape as Record<string, z.ZodType>;
+const START_DATE = parts.right._zod.def.shape.effectiveFrom as z.ZodType;
+
+export type EditTarget = { id: string | null; title: string; values: Input; compareTo: string | null };
+
+export function TariffEditor({ siteId, target, onDone, onCancel }: { siteId: string; target: EditTarget; onDone: (saved: { name: string; effectiveFrom: string }) => void; onCancel: () => void }) {
+  const form = useForm<Input, unknown, Output>({ resolver: zodResolver(TariffVersionSchema), defaultValues: target.values, mode: 'onChange' });
+  const [serverError, setServerError] = useState<{ message: string; fields: Record<string, string> } | null>(null);
+  const values = useWatch({ control: form.control });
+  const currency = typeof values.currency === 'string' && /^[A-Z]{3}$/.test(values.currency) ? values.currency : 'USD';
+  const preview = usePreview(siteId, values, target.compareTo);
+  const ctx = useMemo(() => ({ currency, readOnly: false }), [currency]);
+
+  const save = useMutation({
+    mutationFn: (body: Output) => api(target.id ? `/api/sites/${siteId}/tariffs/${target.id}` : `/api/sites/${siteId}/tariffs`, { method: target.id ? 'PUT' : 'POST', body }),
+    onSuccess: (_d, body) => onDone({ name: body.name, effectiveFrom: body.effectiveFrom }),
+    onError: (e) => {
+      const fields = e instanceof ApiClientError ? e.fields : {};
+      for (const [path, message] of Object.entries(fields)) form.setError(path as never, { type: 'server', message });
+      setServerError({ message: e instanceof ApiClientError ? e.message : 'Could not save the version. Try again.', fields });
+    },
+  });
+
+  const onInvalid = () => setServerError(null);
+  const submit = form.handleSubmit((body) => {
+    setServerError(null);
+    save.mutate(body);
+  }, onInvalid);
+
+  return (
+    <EditorCtx.Provider value={ctx}>
+      <FormProvider {...form}>
+        <div className="grid grid-cols-1 items-start gap-4 lg:grid-cols-[minmax(0,1fr)_26rem]">
+          <form onSubmit={submit} noValidate className="flex min-w-0 flex-col gap-4" aria-labelledby="editor-heading">
+            <section className="card flex flex-col gap-3 p-4">
+              <h2 id="editor-heading">{target.title}</h2>
+              <div className="grid grid-cols-1 gap-3 sm:grid-cols-2 lg:grid-cols-3">
+                <SchemaField path="name" schema={TARIFF_SHAPE.name!} />
+                <SchemaField path="effectiveFrom" schema={START_DATE} />
+                <SchemaField path="currency" schema={TARIFF_SHAPE.currency!} />
+                <SchemaField path="demandWindowMinutes" schema={TARIFF_SHAPE.demandWindowMinutes!} />
+                <SchemaField path="demandMethod" schema={TARIFF_SHAPE.demandMethod!} />
+              </div>
+              <SchemaField path="holidays" schema={TARIFF_SHAPE.holidays!} />
+            </section>
+            <RuleList />
+            {serverError && (
+              <div className="notice notice-error" role="alert">
+                <p>The version was not saved: {serverError.message}</p>
+                {Object.keys(serverError.fields).length > 1 && (
+                  <ul className="mt-1 list-disc pl-5 text-sm">
+                    {Object.entries(serverError.fields).map(([k, v]) => <li key={k}>{describePath(k)}: {v}</li>)}
+                  </ul>
+                )}
+              </div>
+            )}
+            {form.formState.isSubmitted && !form.formState.isValid && !serverError && <p className="notice notice-error" role="alert">Some fields need fixing before the version can be saved; each is marked in red.</p>}
+            <div className="flex flex-wrap gap-2 border-t border-rule pt-3">
+              <button type="submit" className="btn btn-primary" disabled={save.isPending}>{save.isPending ? 'Saving…' : 'Save version'}</button>
+              <button type="button" className="btn btn-quiet" onClick={onCancel}>Cancel</button>
+            </div>
+          </form>
+          <div className="lg:sticky lg:top-4">
+            <PreviewPanel q={preview.q} valid={preview.valid} waiting={preview.waiting} siteId={siteId} />
+          </div>
+        </div>
+      </FormProvider>
+    </EditorCtx.Provider>
+  );
+}
+
+/** `rules.0.targetPf` -> "Rule 1, Target PF". */
+function describePath(path: string): string {
+  const m = /^rules\.(\d+)\.?(.*)$/.exec(path);
+  if (!m) return labelFor(path);
+  return m[2] ? `Rule ${Number(m[1]) + 1}, ${labelFor(path)}` : `Rule ${Number(m[1]) + 1}`;
+}

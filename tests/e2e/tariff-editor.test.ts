@@ -1,0 +1,145 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { inject } from 'vitest';
+import type { Browser, Page } from 'playwright-core';
+import AxeBuilder from '@axe-core/playwright';
+import { launch, SHOTS } from '../support/browser';
+import { DEMO } from '../support/http';
+
+let browser: Browser;
+const base = inject('baseUrl');
+const NEW_NAME = 'PF rider, revised demand rate (journey)';
+
+beforeAll(async () => {
+  browser = await launch();
+});
+afterAll(async () => {
+  await browser?.close();
+});
+
+async function signIn(page: Page, email: string) {
+  await page.goto(`${base}/sign-in`);
+  await page.getByLabel('E-mail').fill(email);
+  await page.getByLabel('Password').fill(DEMO.password);
+  await page.getByRole('button', { name: 'Sign in' }).click();
+  await page.waitForURL(`${base}/`);
+}
+
+async function openTariff(page: Page) {
+  await page.getByRole('link', { name: 'Brackwater Kiln Works' }).first().click();
+  await page.getByRole('navigation', { name: 'Site sections' }).getByRole('link', { name: 'Tariff' }).click();
+  await expect.poll(() => page.getByRole('heading', { name: /^Versions/ }).count(), { timeout: 15_000 }).toBe(1);
+}
+
+async function seriousViolations(page: Page) {
+  const result = await new AxeBuilder({ page }).analyze();
+  return result.violations.filter((v) => v.impact === 'serious' || v.impact === 'critical').map((v) => `${v.id}: ${v.help} (${v.nodes.map((n) => n.target.join(' ')).join(', ')})`);
+}
+
+const totalOf = (page: Page) => page.getByTestId('preview-total').textContent();
+
+describe('tariff editor in Chromium', () => {
+  it('an Energy manager copies the current version, changes a rate, sees the preview move, saves it and finds it listed', async () => {
+    const ctx = await browser.newContext({ viewport: { width: 1280, height: 900 } });
+    const page = await ctx.newPage();
+    await signIn(page, DEMO.energy);
+    await openTariff(page);
+    await page.screenshot({ path: `${SHOTS}/tariff-versions.png`, fullPage: true });
+    const before = await page.getByRole('article', { name: /, from \d{4}-\d\d-\d\d$/ }).count();
+    expect(before).toBeGreaterThan(0);
+
+    await page.getByRole('button', { name: 'Copy the current version' }).click();
+    // The copy is compared with the version it came from: the same figures, so no change.
+    await expect.poll(() => page.getByTestId('preview-change').textContent(), { timeout: 20_000 }).toBe('no change');
+    const original = await totalOf(page);
+    expect(original).toMatch(/^\$[\d,]+\.\d\d$/);
+    expect(await page.getByRole('table').getByRole('row').count()).toBe(12 + 2);
+
+    // Raise the demand rate of the PF-adjusted billing demand rule: the preview total rises.
+    const rule1 = page.getByRole('article', { name: /^Rule 1:/ });
+    await rule1.getByLabel('Demand rate').fill('21.3');
+    await expect.poll(() => totalOf(page), { timeout: 20_000 }).not.toBe(original);
+    await expect.poll(() => page.getByTestId('preview-change').textContent()).toMatch(/^\+\$[\d,]+\.\d\d more$/);
+
+    // A value outside the engine's bounds is refused next to its field, and the preview waits.
+    await rule1.getByLabel('Target PF').fill('1.4');
+    await expect.poll(() => rule1.getByText('Must be 1 or less.').count()).toBe(1);
+    await expect.poll(() => page.getByText('Fix the fields marked in the form to update the preview.').count()).toBe(1);
+    await rule1.getByLabel('Target PF').fill('0.9');
+    await expect.poll(() => rule1.getByText('Must be 1 or less.').count()).toBe(0);
+
+    // Add a rule of another type, limited to a night window that runs past midnight.
+    await page.getByRole('button', { name: 'Add a rule' }).click();
+    await page.getByRole('group', { name: 'Rule types' }).getByRole('button', { name: /^Excess reactive energy/ }).click();
+    const rule3 = page.getByRole('article', { name: /^Rule 3:/ });
+    expect(await rule3.getByLabel('Allowance PF').inputValue()).toBe('0.9');
+    await rule3.getByLabel('Only in a time-of-use window').check();
+    await rule3.getByRole('button', { name: 'Add time range' }).click();
+    await rule3.getByLabel('From', { exact: true }).fill('22:00');
+    await rule3.getByLabel('To', { exact: true }).fill('06:00');
+    await expect.poll(() => rule3.getByText('Runs past midnight: 22:00 to 24:00, then 00:00 to 06:00.').count()).toBe(1);
+    await rule3.getByLabel('Rate per kvarh').fill('0.01');
+
+    await page.getByLabel('Version name').fill(NEW_NAME);
+    await page.getByLabel('In force from').fill('2030-01-01');
+    await expect.poll(() => page.getByText('Up to date with the form.').count(), { timeout: 20_000 }).toBe(1);
+
+    const violations = await seriousViolations(page);
+    expect(violations, violations.join('\n')).toEqual([]);
+    await page.screenshot({ path: `${SHOTS}/tariff-editor.png`, fullPage: true });
+
+    await page.getByRole('button', { name: 'Save version' }).click();
+    await expect.poll(() => page.getByRole('status').filter({ hasText: `Saved “${NEW_NAME}”, in force from 2030-01-01.` }).count(), { timeout: 15_000 }).toBe(1);
+    const saved = page.getByRole('article', { name: `${NEW_NAME}, from 2030-01-01` });
+    await expect.poll(() => saved.count()).toBe(1);
+    await expect.poll(() => saved.getByText(/\$21\.30\/kW/).count()).toBe(1);
+    await expect.poll(() => saved.getByText(/Only in: 22:00-06:00/).count()).toBe(1);
+    expect(await page.getByRole('article', { name: /, from \d{4}-\d\d-\d\d$/ }).count()).toBe(before + 1);
+    await page.screenshot({ path: `${SHOTS}/tariff-saved.png`, fullPage: true });
+
+    // The server's own check lands next to the field: a second version on the same date.
+    await page.getByRole('button', { name: 'Copy the current version' }).click();
+    await page.getByLabel('In force from').fill('2030-01-01');
+    await page.getByRole('button', { name: 'Save version' }).click();
+    await expect.poll(() => page.locator('#tf-effectiveFrom-err').textContent(), { timeout: 15_000 }).toBe('Already used by another version.');
+    await page.getByRole('button', { name: 'Cancel' }).click();
+
+    // Delete the journey's version again, after a confirmation.
+    await page.getByRole('button', { name: `Delete ${NEW_NAME} from 2030-01-01` }).click();
+    await page.getByRole('button', { name: 'Yes, delete' }).click();
+    await expect.poll(() => saved.count(), { timeout: 15_000 }).toBe(0);
+    expect(await page.getByRole('article', { name: /, from \d{4}-\d\d-\d\d$/ }).count()).toBe(before);
+    await ctx.close();
+  });
+
+  it('starts a new version from an invented example in the site currency', async () => {
+    const ctx = await browser.newContext({ viewport: { width: 1280, height: 900 } });
+    const page = await ctx.newPage();
+    await signIn(page, DEMO.energy);
+    await openTariff(page);
+    await page.getByLabel('From an example tariff').selectOption({ label: 'Percentage surcharge in tiers, with a credit' });
+    await page.getByRole('button', { name: 'New version from this example' }).click();
+    expect(await page.getByLabel('Currency').inputValue()).toBe('USD');
+    const rule1 = page.getByRole('article', { name: /^Rule 1:/ });
+    expect(await rule1.getByLabel('Threshold PF').inputValue()).toBe('0.95');
+    expect(await rule1.getByRole('group', { name: 'Surcharge tiers' }).getByLabel('Percent per step').count()).toBe(2);
+    await expect.poll(() => page.getByTestId('preview-total').count(), { timeout: 20_000 }).toBe(1);
+    await page.screenshot({ path: `${SHOTS}/tariff-from-example.png`, fullPage: true });
+    await page.setViewportSize({ width: 390, height: 844 });
+    await page.screenshot({ path: `${SHOTS}/tariff-editor-phone.png`, fullPage: true });
+    await page.getByRole('button', { name: 'Cancel' }).click();
+    await ctx.close();
+  });
+
+  it('Finance reads the versions without edit controls', async () => {
+    const ctx = await browser.newContext({ viewport: { width: 1280, height: 900 } });
+    const page = await ctx.newPage();
+    await signIn(page, DEMO.finance);
+    await openTariff(page);
+    expect(await page.getByRole('article', { name: /, from \d{4}-\d\d-\d\d$/ }).count()).toBeGreaterThan(0);
+    expect(await page.getByRole('button', { name: /^(Edit|Delete|Copy)/ }).count()).toBe(0);
+    expect(await page.getByRole('heading', { name: 'Start a new version' }).count()).toBe(0);
+    const violations = await seriousViolations(page);
+    expect(violations, violations.join('\n')).toEqual([]);
+    await ctx.close();
+  });
+});

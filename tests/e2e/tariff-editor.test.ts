@@ -79,6 +79,14 @@ describe('tariff editor in Chromium', () => {
     await expect.poll(() => rule3.getByText('Runs past midnight: 22:00 to 24:00, then 00:00 to 06:00.').count()).toBe(1);
     await rule3.getByLabel('Rate per kvarh').fill('0.01');
 
+    // Reorder: duplicate rule 2, remove the copy again, then move the new rule up to second place.
+    await page.getByRole('button', { name: 'Duplicate rule 2' }).click();
+    await expect.poll(() => page.getByRole('article', { name: /^Rule 3: Leading kvarh while idle \(copy\)$/ }).count()).toBe(1);
+    await page.getByRole('button', { name: 'Remove rule 3' }).click();
+    await expect.poll(() => page.getByRole('article', { name: /^Rule \d:/ }).count()).toBe(3);
+    await page.getByRole('button', { name: 'Move rule 3 up' }).click();
+    await expect.poll(() => page.getByRole('article', { name: /^Rule 2: Excess reactive energy$/ }).count()).toBe(1);
+
     await page.getByLabel('Version name').fill(NEW_NAME);
     await page.getByLabel('In force from').fill('2030-01-01');
     await expect.poll(() => page.getByText('Up to date with the form.').count(), { timeout: 20_000 }).toBe(1);
@@ -93,6 +101,7 @@ describe('tariff editor in Chromium', () => {
     await expect.poll(() => saved.count()).toBe(1);
     await expect.poll(() => saved.getByText(/\$21\.30\/kW/).count()).toBe(1);
     await expect.poll(() => saved.getByText(/Only in: 22:00-06:00/).count()).toBe(1);
+    expect(await saved.getByRole('listitem').nth(1).textContent()).toMatch(/^2\.Excess reactive energy/);
     expect(await page.getByRole('article', { name: /, from \d{4}-\d\d-\d\d$/ }).count()).toBe(before + 1);
     await page.screenshot({ path: `${SHOTS}/tariff-saved.png`, fullPage: true });
 
@@ -103,10 +112,16 @@ describe('tariff editor in Chromium', () => {
     await expect.poll(() => page.locator('#tf-effectiveFrom-err').textContent(), { timeout: 15_000 }).toBe('Already used by another version.');
     await page.getByRole('button', { name: 'Cancel' }).click();
 
+    // Edit the saved version: its name changes in the list.
+    await page.getByRole('button', { name: `Edit ${NEW_NAME} from 2030-01-01` }).click();
+    await page.getByLabel('Version name').fill(`${NEW_NAME}, edited`);
+    await page.getByRole('button', { name: 'Save version' }).click();
+    await expect.poll(() => page.getByRole('article', { name: `${NEW_NAME}, edited, from 2030-01-01` }).count(), { timeout: 15_000 }).toBe(1);
+
     // Delete the journey's version again, after a confirmation.
-    await page.getByRole('button', { name: `Delete ${NEW_NAME} from 2030-01-01` }).click();
+    await page.getByRole('button', { name: `Delete ${NEW_NAME}, edited from 2030-01-01` }).click();
     await page.getByRole('button', { name: 'Yes, delete' }).click();
-    await expect.poll(() => saved.count(), { timeout: 15_000 }).toBe(0);
+    await expect.poll(() => page.getByRole('article', { name: /from 2030-01-01$/ }).count(), { timeout: 15_000 }).toBe(0);
     expect(await page.getByRole('article', { name: /, from \d{4}-\d\d-\d\d$/ }).count()).toBe(before);
     await ctx.close();
   });

@@ -12,6 +12,7 @@ import { api, ApiClientError } from '../api';
 import { TariffVersionSchema } from '@/lib/schemas/tariff';
 import { EditorCtx } from './form-context';
 import { SchemaField } from './schema-fields';
+import { unwrap } from './schema-walk';
 import { RuleList } from './RuleList';
 import { labelFor } from './labels';
 import { PreviewPanel } from './PreviewPanel';
@@ -61,7 +62,7 @@ export function TariffEditor({ siteId, target, onDone, onCancel }: { siteId: str
               <h2 id="editor-heading">{target.title}</h2>
               <div className="grid grid-cols-1 gap-3 sm:grid-cols-2 lg:grid-cols-3">
                 <SchemaField path="name" schema={TARIFF_SHAPE.name!} />
-                <SchemaField path="effectiveFrom" schema={START_DATE} />
+                <SchemaField path="effectiveFrom" schema={START_DATE} hint={unwrap(TARIFF_SHAPE.effectiveFrom!).description} />
                 <SchemaField path="currency" schema={TARIFF_SHAPE.currency!} />
                 <SchemaField path="demandWindowMinutes" schema={TARIFF_SHAPE.demandWindowMinutes!} />
                 <SchemaField path="demandMethod" schema={TARIFF_SHAPE.demandMethod!} />

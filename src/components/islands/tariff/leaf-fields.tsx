@@ -131,7 +131,7 @@ export function IntSetField({ path, label, hint, optional, from, to }: LeafProps
   const id = fieldId(path);
   const items = Array.from({ length: to - from + 1 }, (_, i) => from + i);
   return (
-    <fieldset className="min-w-0" aria-describedby={describedBy(path, hint, error)}>
+    <fieldset className="min-w-0 sm:col-span-2" aria-describedby={describedBy(path, hint, error)}>
       <legend className="text-[0.8125rem] font-medium">
         {label}
         {optional && <span className="font-normal text-muted"> (none ticked: every {label.toLowerCase().replace(/s$/, '')})</span>}

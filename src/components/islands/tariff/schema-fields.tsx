@@ -30,12 +30,12 @@ const isGroup = (s: Schema) => {
 };
 
 /** One field of any kind, by its path in the form and its schema. */
-export function SchemaField({ path, schema, label }: { path: string; schema: Schema; label?: string }) {
+export function SchemaField({ path, schema, label, hint }: { path: string; schema: Schema; label?: string; hint?: string }) {
   const { currency } = useEditor();
   const u = unwrap(schema);
   const k = kindOf(u.schema);
   const text = label ?? labelFor(path);
-  const common = { path, label: text, hint: u.description, optional: u.optional };
+  const common = { path, label: text, hint: u.description ?? hint, optional: u.optional };
   switch (k.kind) {
     case 'literal':
     case 'other':

@@ -8,14 +8,16 @@ import tailwindcss from '@tailwindcss/vite';
 // honours HOST and PORT. Origin checks on state-changing requests are done by our own
 // middleware against the configured APP_URL (see DEVELOPERS.md, Decisions), because Astro's
 // built-in check is fixed at build time and the deployment's host is only known at run time.
+// VARLEDGER_DIST lets parallel local runs build into separate folders (CI and npm start use dist/).
 export default defineConfig({
   output: 'server',
+  outDir: process.env.VARLEDGER_DIST ?? './dist',
   adapter: node({ mode: 'standalone' }),
   integrations: [react()],
   security: { checkOrigin: false },
   devToolbar: { enabled: false },
   vite: {
     plugins: [tailwindcss()],
-    ssr: { external: ['@libsql/client', 'libsql', 'nodemailer', 'maildev'] },
+    ssr: { external: ['@libsql/client', 'libsql', 'nodemailer', 'maildev', 'pdfkit', 'exceljs', 'stripe'] },
   },
 });

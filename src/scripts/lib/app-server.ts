@@ -4,7 +4,8 @@ import { existsSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 
 export const ROOT = fileURLToPath(new URL('../../../', import.meta.url));
-export const ENTRY = `${ROOT}dist/server/entry.mjs`;
+/** The built server; VARLEDGER_DIST (see astro.config.mjs) moves it for parallel local runs. */
+export const ENTRY = `${ROOT}${(process.env.VARLEDGER_DIST ?? 'dist').replace(/^\.\//, '').replace(/\/$/, '')}/server/entry.mjs`;
 
 export type AppServer = { url: string; child: ChildProcess; stop: () => Promise<void> };
 

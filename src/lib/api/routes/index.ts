@@ -5,8 +5,9 @@
 import type { RouteDoc } from '../route-doc';
 import { PORTFOLIO_ROUTES } from './portfolio';
 import { FINDINGS_VIEW_ROUTES } from './findings-views';
+import { REPORT_ROUTES } from './reports';
 import { CORRECTION_ROUTES } from './correction';
 import { TARIFF_EDITOR_ROUTES } from './tariff-editor';
 import { PURCHASE_ROUTES } from './purchases';
 
-export const AREA_ROUTES: RouteDoc[] = [...PORTFOLIO_ROUTES, ...FINDINGS_VIEW_ROUTES, ...CORRECTION_ROUTES, ...TARIFF_EDITOR_ROUTES, ...PURCHASE_ROUTES];
+export const AREA_ROUTES: RouteDoc[] = [...PORTFOLIO_ROUTES, ...FINDINGS_VIEW_ROUTES, ...REPORT_ROUTES, ...CORRECTION_ROUTES, ...TARIFF_EDITOR_ROUTES, ...PURCHASE_ROUTES];

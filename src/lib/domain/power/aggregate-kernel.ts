@@ -63,9 +63,10 @@ const LEAD_EXPORT = 17;
 export const KERNEL_FIELDS = { kwh: KWH, kvarhLag: LAG, kvarhLead: LEAD, kvarhLeadZeroKw: LEAD_ZERO, importIntervals: IMPORT_N, zeroKwIntervals: ZERO_N, exportIntervals: EXPORT_N, kwhExport: KWH_EXPORT, leadingIntervals: LEADING_N, reactiveMissing: MISSING_N, maxLeadRatio: MAX_LEAD_RATIO, maxKvar: MAX_KVAR, maxKvarBlock: MAX_KVAR_BLOCK, maxKvaSq: MAX_KVA_SQ, maxKvaBlock: MAX_KVA_BLOCK, coincidentKvar: COINCIDENT_KVAR, kvarhLagExport: LAG_EXPORT, kvarhLeadExport: LEAD_EXPORT } as const;
 
 /**
- * One pass over the intervals and one over the demand readings, filling `plan.acc`
- * with the energy totals, counts and reactive maxima of every (period, window) under
- * a correction. Allocates nothing: the sizing search calls it once per candidate.
+ * One pass over the intervals (block demand readings are closed inside it; rolling
+ * demand adds a pass over its readings), filling `plan.acc` with the energy totals,
+ * counts and reactive maxima of every (period, window) under a correction. Allocates
+ * nothing: the sizing search calls it once per candidate.
  *
  * A bank's kvarh first cancels the interval's lagging kvarh and the rest is added
  * to its leading kvarh, so a zero correction reproduces the meter's registers.

@@ -76,7 +76,10 @@ describe('onboarding journey in Chromium', () => {
     await fpage.waitForURL(inviteLink);
     await expect.poll(() => fpage.getByText('as Finance').count()).toBe(1);
     await fpage.getByRole('button', { name: 'Join Holt Bakeries' }).click();
-    await fpage.waitForURL(`${base}/`);
+    // Finance lands on its home, the payback table; the Portfolio is in the top bar.
+    await fpage.waitForURL(`${base}/payback`);
+    await fpage.getByRole('navigation', { name: 'Workspace' }).getByRole('link', { name: 'Portfolio' }).click();
+    await fpage.waitForURL(`${base}/?portfolio=1`);
 
     // Finance sees the site but no control to change it.
     await expect.poll(() => fpage.getByRole('link', { name: 'Holt Ovens North' }).count()).toBe(1);

@@ -20,15 +20,19 @@ export function BuyAudits({ sites, price, canBuy }: { sites: SiteLite[]; price: 
   return (
     <section className="card p-4" aria-labelledby="buy-h">
       <div className="mb-3 flex flex-wrap items-baseline justify-between gap-2">
-        <h2 id="buy-h">Buy Site audits</h2>
+        <h2 id="buy-h">{canBuy ? 'Buy Site audits' : 'Site audits'}</h2>
         <p className="text-sm text-muted">One Site audit per site: <span className="figure">{formatMinor(price.unitAmount, price.currency)}</span>. It makes the site’s findings final (Audited) and lets a Savings report be issued.</p>
       </div>
-      {!canBuy && <p className="notice mb-3 text-sm">Your role can read the purchases of this workspace. An Owner or a Consultant buys Site audits.</p>}
-      {drafts.length === 0 ? (
+      {!canBuy ? (
+        <>
+          <p className="notice mb-3 text-sm">Your role can read the purchases of this workspace. An Owner or a Consultant buys Site audits.</p>
+          <p className="text-sm">{drafts.length === 0 ? 'Every site of this workspace is already Audited or Reported.' : `Still Draft: ${drafts.map((s) => s.name).join(', ')}.`}</p>
+        </>
+      ) : drafts.length === 0 ? (
         <p className="text-sm text-muted">Every site of this workspace is already Audited or Reported.</p>
       ) : (
         <form onSubmit={(e) => { e.preventDefault(); setError(null); start.mutate(); }}>
-          <fieldset disabled={!canBuy || start.isPending}>
+          <fieldset disabled={start.isPending}>
             <legend className="mb-2 text-sm font-medium">Draft sites</legend>
             <table className="ledger text-sm">
               <thead><tr><th scope="col" className="w-10"><span className="sr-only">Choose</span></th><th scope="col">Site</th><th scope="col" className="text-right">Price</th></tr></thead>
@@ -43,12 +47,10 @@ export function BuyAudits({ sites, price, canBuy }: { sites: SiteLite[]; price: 
               </tbody>
               <tfoot><tr><th scope="row" colSpan={2}>Total for {n} {n === 1 ? 'Site audit' : 'Site audits'}</th><td className="figure">{formatMinor(price.unitAmount * n, price.currency)}</td></tr></tfoot>
             </table>
-            {canBuy && (
-              <div className="mt-3 flex flex-wrap items-center gap-3">
-                <button type="submit" className="btn btn-primary" disabled={n === 0}>{start.isPending ? 'Opening the payment page…' : `Pay for ${n} ${n === 1 ? 'Site audit' : 'Site audits'}`}</button>
-                <span className="text-sm text-muted">You pay on the payment provider’s page and come back here.</span>
-              </div>
-            )}
+            <div className="mt-3 flex flex-wrap items-center gap-3">
+              <button type="submit" className="btn btn-primary" disabled={n === 0}>{start.isPending ? 'Opening the payment page…' : `Pay for ${n} ${n === 1 ? 'Site audit' : 'Site audits'}`}</button>
+              <span className="text-sm text-muted">You pay on the payment provider’s page and come back here.</span>
+            </div>
           </fieldset>
           {error && <p className="notice notice-error mt-3" role="alert">{error}</p>}
         </form>

@@ -21,7 +21,9 @@ async function signIn(page: Page, email: string) {
   await page.getByLabel('E-mail').fill(email);
   await page.getByLabel('Password').fill(DEMO.password);
   await page.getByRole('button', { name: 'Sign in' }).click();
-  await page.waitForURL(`${base}/`);
+  // Each role has its own landing page; the journeys start from the Portfolio.
+  await page.waitForURL((u) => !u.pathname.startsWith('/sign-in'));
+  await page.goto(`${base}/`);
 }
 
 async function openTariff(page: Page) {

@@ -108,6 +108,8 @@ export async function previewTariff(db: Db, organizationId: string, site: SiteDt
   const notes = draftRun.notes.filter((n) => !n.startsWith('No tariff'));
   if (months.some((m) => m.completeness < 0.98)) notes.push('Some months are not complete in the meter data; their charges cover only the intervals present.');
   if (savedRun && savedRun.currency && savedRun.currency !== draft.currency) notes.push(`The saved tariff is in ${savedRun.currency} and this draft in ${draft.currency}: the change adds them as entered.`);
+  const needsInput = new Set(months.flatMap((m) => m.rules.filter((r) => r.status === 'needs-input').map((r) => r.ruleLabel)));
+  for (const label of needsInput) notes.push(`${label} takes its base from amounts on the bills, so the preview counts it as zero.`);
   if (draft.rules.some((r) => 'ratchet' in r && r.ratchet)) notes.push('Ratchets look back only over the months shown here.');
   return {
     hasData: true,

@@ -3,7 +3,7 @@
  * TariffVersionSchema in the browser, the same schema on the server, whose 400 field
  * paths are put back next to the fields.
  */
-import { useMemo, useState } from 'react';
+import { useEffect, useMemo, useRef, useState } from 'react';
 import { FormProvider, useForm, useWatch } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useMutation } from '@tanstack/react-query';
@@ -36,6 +36,9 @@ export function TariffEditor({ siteId, target, onDone, onCancel }: { siteId: str
   const currency = typeof values.currency === 'string' && /^[A-Z]{3}$/.test(values.currency) ? values.currency : 'USD';
   const preview = usePreview(siteId, values, target.compareTo);
   const ctx = useMemo(() => ({ currency, readOnly: false }), [currency]);
+  // The editor replaces the list: move focus to its heading so keyboard and screen-reader users follow.
+  const heading = useRef<HTMLHeadingElement>(null);
+  useEffect(() => heading.current?.focus(), []);
 
   const save = useMutation({
     mutationFn: (body: Output) => api(target.id ? `/api/sites/${siteId}/tariffs/${target.id}` : `/api/sites/${siteId}/tariffs`, { method: target.id ? 'PUT' : 'POST', body }),
@@ -59,7 +62,7 @@ export function TariffEditor({ siteId, target, onDone, onCancel }: { siteId: str
         <div className="grid grid-cols-1 items-start gap-4 lg:grid-cols-[minmax(0,1fr)_26rem]">
           <form onSubmit={submit} noValidate className="flex min-w-0 flex-col gap-4" aria-labelledby="editor-heading">
             <section className="card flex flex-col gap-3 p-4">
-              <h2 id="editor-heading">{target.title}</h2>
+              <h2 id="editor-heading" ref={heading} tabIndex={-1}>{target.title}</h2>
               <div className="grid grid-cols-1 gap-3 sm:grid-cols-2 lg:grid-cols-3">
                 <SchemaField path="name" schema={TARIFF_SHAPE.name!} />
                 <SchemaField path="effectiveFrom" schema={START_DATE} hint={unwrap(TARIFF_SHAPE.effectiveFrom!).description} />

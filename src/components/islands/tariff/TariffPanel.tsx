@@ -1,5 +1,5 @@
 /** The Tariff screen: saved versions in date order, and the editor to add, copy or change one. */
-import { useState } from 'react';
+import { useEffect, useRef, useState } from 'react';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { QueryRoot } from '../QueryRoot';
 import { api } from '../api';
@@ -30,6 +30,11 @@ function Panel({ siteId, currency, canEdit }: { siteId: string; currency: string
   const [target, setTarget] = useState<EditTarget | null>(null);
   const [notice, setNotice] = useState<string | null>(null);
   const [example, setExample] = useState(EXAMPLE_TARIFFS[0]!.key);
+  // After a save or delete the editor or row is gone: put focus on the message that says what happened.
+  const noticeRef = useRef<HTMLParagraphElement>(null);
+  useEffect(() => {
+    if (notice) noticeRef.current?.focus();
+  }, [notice]);
   const remove = useMutation({
     mutationFn: (t: TariffDto) => api(`/api/sites/${siteId}/tariffs/${t.id}`, { method: 'DELETE' }),
     onSuccess: (_d, t) => {
@@ -73,7 +78,7 @@ function Panel({ siteId, currency, canEdit }: { siteId: string; currency: string
 
   return (
     <div className="flex flex-col gap-4">
-      {notice && <p className="notice notice-ok" role="status">{notice}</p>}
+      {notice && <p className="notice notice-ok" role="status" tabIndex={-1} ref={noticeRef}>{notice}</p>}
       {canEdit && (
         <section className="card flex flex-col gap-3 p-4" aria-labelledby="start-heading">
           <h2 id="start-heading">Start a new version</h2>

@@ -9,6 +9,8 @@ import type { Tariff } from '../tariff/tariff-schema';
 import { switchedBankSchema } from './bank-spec';
 import { fixedBankKvarhPerInterval, switchedBankCorrection } from './bank-kvarh';
 import { textbookEstimate, type TextbookEstimate } from './textbook-estimate';
+import { screenResonance, screenResonanceSteps } from './resonance';
+import { voltageRise } from './voltage-and-duty';
 
 /** Bank sizes from `fromKvar` to `toKvar` inclusive in steps of `stepKvar`, for `sizesKvar`. */
 export function kvarRange(fromKvar: number, toKvar: number, stepKvar: number): number[] {
@@ -36,6 +38,17 @@ export interface SizingOptions {
   costs: { fixed: BankCosts; switched: BankCosts; detuningPremiumPerKvar?: number; omPctOfCapex?: number };
   finance: { lifeYears: number; discountRate: number };
   evaluate?: EvaluateOptions;
+  /** Supply transformer, to screen each row for resonance and voltage rise. */
+  transformer?: { kva: number; impedancePct: number };
+}
+
+/** Screening of one row against the supply transformer (warnings, not design). */
+export interface RowScreen {
+  /** Resonance order with all steps in. */
+  order: number;
+  /** Screened harmonics that some step combination comes close to (empty when none). */
+  nearHarmonics: number[];
+  voltageRisePct: number;
 }
 
 export interface SizingRow {
@@ -54,6 +67,8 @@ export interface SizingRow {
   worstLeadPf: number | null;
   bestNpv: boolean;
   shortestPayback: boolean;
+  /** Present when a transformer was given. */
+  screen?: RowScreen;
 }
 
 export interface SizingTable {
@@ -93,7 +108,9 @@ export function sizingSearch(tariff: Tariff, series: IntervalSeries, periods: re
     const capex = capexOf({ kvar, costPerKvar: costs.perKvar, fixedCost: costs.fixedCost, detuningPremiumPerKvar: opts.costs.detuningPremiumPerKvar }).total;
     const annualPfCharge = evaluation.total * annualFactor;
     const e = economics({ capex, annualSaving: baselineAnnual - annualPfCharge, omPerYear: capex * om, lifeYears: opts.finance.lifeYears, discountRate: opts.finance.discountRate });
-    rows.push({ kind, kvar, steps, annualPfCharge, annualSaving: e.annualSaving, capex, omPerYear: capex * om, paybackYears: e.paybackYears, npv: e.npv, irr: e.irr, ...lead, bestNpv: false, shortestPayback: false });
+    const row: SizingRow = { kind, kvar, steps, annualPfCharge, annualSaving: e.annualSaving, capex, omPerYear: capex * om, paybackYears: e.paybackYears, npv: e.npv, irr: e.irr, ...lead, bestNpv: false, shortestPayback: false };
+    if (opts.transformer) row.screen = screenRow(opts.transformer, kvar, steps);
+    rows.push(row);
   };
 
   for (const kvar of opts.sizesKvar) {
@@ -120,6 +137,7 @@ export function sizingSearch(tariff: Tariff, series: IntervalSeries, periods: re
   if (bestNpvIndex !== null) rows[bestNpvIndex].bestNpv = true;
   if (shortestPaybackIndex !== null) rows[shortestPaybackIndex].shortestPayback = true;
   const notes = annualFactor === 1 ? [] : [`The periods cover ${Math.round(hours)} hours; charges were scaled by ${annualFactor.toFixed(3)} to a year.`];
+  if (kinds.includes('switched')) notes.push(`Switched banks were simulated on ${series.intervalMinutes}-min averages: switching within an interval is not seen.`);
   return { currency: tariff.currency, baselineAnnualPfCharge: baselineAnnual, annualFactor, rows, bestNpvIndex, shortestPaybackIndex, textbook, notes };
 }
 
@@ -144,4 +162,11 @@ function argBest<T>(items: readonly (T | null)[], key: (t: T) => number, better:
     if (best === null || better(key(item), key(items[best] as T))) best = i;
   });
   return best;
+}
+
+function screenRow(tx: { kva: number; impedancePct: number }, kvar: number, steps: number | null): RowScreen {
+  const input = { transformerKva: tx.kva, impedancePct: tx.impedancePct };
+  const levels = steps === null ? [screenResonance({ ...input, bankKvar: kvar })] : screenResonanceSteps(input, Array.from({ length: steps }, () => kvar / steps));
+  const near = [...new Set(levels.map((l) => l.nearHarmonic).filter((h): h is number => h !== null))].sort((a, b) => a - b);
+  return { order: levels[levels.length - 1].order, nearHarmonics: near, voltageRisePct: voltageRise({ bankKvar: kvar, transformerKva: tx.kva, impedancePct: tx.impedancePct }).risePct };
 }

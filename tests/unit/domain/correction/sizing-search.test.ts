@@ -90,3 +90,20 @@ describe('candidate sizes', () => {
     expect(kvarRange(from, to, step)).toEqual(sizes);
   });
 });
+
+describe('screening each row against the transformer', () => {
+  const screened = sizingSearch(tariff, s, periods, { ...options, sizesKvar: [600], stepCounts: [4], transformer: { kva: 1500, impedancePct: 5.75 } });
+  it.each([
+    ['fixed', 6.59, [7], 'hand-computed from h = sqrt(kVA_sc / kvar), common practice: 600 kvar on 1500 kVA at 5.75 % -> 6.59, near the 7th'],
+    ['switched', 6.59, [7, 13], 'hand-computed, same formula per step: 150, 300, 450, 600 kvar -> 13.19 (13th), 9.33, 7.61 and 6.59 (7th)'],
+  ])('%s bank', (kind, order, near, _source) => {
+    const row = screened.rows.find((r) => r.kind === kind);
+    expect(row?.screen?.order).toBeCloseTo(order, 2);
+    expect(row?.screen?.nearHarmonics).toEqual(near);
+    // from memory (IEEE Std 141): dV% ~ kvar x Z% / kVA = 600 x 5.75 / 1500 = 2.3 %.
+    expect(row?.screen?.voltageRisePct).toBeCloseTo(2.3, 9);
+  });
+  it('notes that switched banks are simulated on interval averages', () => {
+    expect(screened.notes.some((n) => /averages/.test(n))).toBe(true);
+  });
+});

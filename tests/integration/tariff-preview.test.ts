@@ -2,6 +2,8 @@ import { beforeAll, describe, expect, it } from 'vitest';
 import { as, Client, DEMO } from '../support/http';
 import { uploadFile } from '../support/upload';
 import { ownerOfNewWorkspace } from '../support/accounts';
+import { RULE_TYPES, tariffRuleSchema } from '../../src/lib/domain/tariff/rule-registry';
+import { initialValue, unionOption } from '../../src/components/islands/tariff/schema-walk';
 
 // Invented data: a constant 400 kW / 240 kvar load (100 kWh and 60 kvarh per quarter-hour), UTC stamps,
 // from 2026-01-01 for 59 days: January (31 days) and February (28 days) 2026 in full.
@@ -82,6 +84,14 @@ describe('tariff preview', () => {
     expect(r.json.preview.saved.total).toBeCloseTo(85.33, 2);
     expect((await energy.get(`/api/sites/${siteId}/tariffs`)).json.tariffs).toHaveLength(1);
     expect((await energy.post(`/api/sites/${siteId}/tariffs/preview?compareTo=tar_nothing`, draft)).status).toBe(404);
+  });
+
+  it('accepts a new rule of every type as the editor starts it', async () => {
+    const rules = RULE_TYPES.map((t) => ({ ...(initialValue(unionOption(tariffRuleSchema, t.type)!) as object), id: `new-${t.type}` }));
+    expect(rules.map((r) => (r as { type: string }).type)).toEqual(RULE_TYPES.map((t) => t.type));
+    const r = await energy.post(`/api/sites/${siteId}/tariffs/preview`, { name: 'Every rule type', currency: 'USD', effectiveFrom: '2026-01-01', rules });
+    expect(r.status, JSON.stringify(r.json)).toBe(200);
+    expect(r.json.preview.months[0].rules.map((x: { ruleId: string }) => x.ruleId)).toEqual(rules.map((x) => x.id));
   });
 
   it('answers 400 naming the bad field', async () => {

@@ -75,12 +75,12 @@ function run(series: Awaited<ReturnType<typeof readSeries>>, zone: string, tarif
 export async function previewTariff(db: Db, organizationId: string, site: SiteDto, draft: TariffVersion, compareTo?: string): Promise<TariffPreview> {
   const saved = await listTariffs(db, organizationId, site.id);
   let comparison = saved;
-  let savedLabel = 'Saved versions as in force';
+  let savedLabel = 'the saved versions, each month under the one in force';
   if (compareTo) {
     const one = saved.find((t) => t.id === compareTo);
     if (!one) throw notFound('Tariff');
     comparison = [{ ...one, effectiveFrom: '0000-01-01' }];
-    savedLabel = `${one.name} (from ${one.effectiveFrom}), as saved`;
+    savedLabel = `the saved version “${one.name}” (from ${one.effectiveFrom}) over every month`;
   }
   const zone = site.timeZone;
   const empty: TariffPreview = { hasData: false, currency: draft.currency, zone, meter: null, months: [], total: 0, byRule: [], saved: null, notes: [] };

@@ -124,7 +124,7 @@ function PreviewBody({ p }: { p: TariffPreview }) {
           {p.byRule.map((r) => <li key={r.ruleId} className="flex justify-between gap-2"><span>{r.ruleLabel}</span><span className="figure">{money(r.total, p.currency)}</span></li>)}
         </ul>
       )}
-      {p.saved && <p className="text-[0.8125rem] text-muted">Saved: {p.saved.label}.</p>}
+      {p.saved && <p className="text-[0.8125rem] text-muted">Compared with {p.saved.label}.</p>}
       {p.notes.map((n) => <p key={n} className="text-[0.8125rem] text-muted">{n}</p>)}
     </>
   );

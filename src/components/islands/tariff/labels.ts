@@ -98,7 +98,7 @@ const UNITS: Record<string, string> = {
 
 /** Readable choices, by field key then value. */
 const OPTIONS: Record<string, Record<string, string>> = {
-  demandMethod: { block: 'Block: clock-aligned windows', rolling: 'Rolling: a window ending at every interval' },
+  demandMethod: { block: 'Block (clock-aligned)', rolling: 'Rolling (every interval)' },
   pfBasis: { average: 'Period average (from kWh and kvarh)', 'at-peak': 'PF at the kW peak' },
   kvarhBasis: { lagging: 'Lagging only (leading ignored)', net: 'Net: lagging minus leading', absolute: 'Absolute: lagging plus leading' },
   'pfRounding.mode': { nearest: 'To the nearest', down: 'Down', up: 'Up' },

@@ -48,7 +48,7 @@ function Table({ siteId }: { siteId: string }) {
                       <th scope="row" className="text-left font-normal">{p.label}</th>
                       <td className="figure">{num(p.metrics.kwh)}<span className="unit">kWh</span></td>
                       <td className="figure text-lagging">{num(p.metrics.kvarhLag)}<span className="unit">kvarh</span></td>
-                      <td className="figure text-leading">{num(p.metrics.kvarhLead)}<span className="unit">kvarh</span></td>
+                      <td className="figure text-leading-ink">{num(p.metrics.kvarhLead)}<span className="unit">kvarh</span></td>
                       <td className="figure">{pf(p.metrics.pfAvgLagging, 'lag')}</td>
                       <td className="figure">{num(p.metrics.peakKw, 1)}<span className="unit">kW</span></td>
                       <td className="figure">{pf(p.metrics.peakPf, p.metrics.peakPfSense)}</td>

@@ -154,7 +154,7 @@ function Panel({ siteId, siteZone, canUpload }: { siteId: string; siteZone: stri
                     <caption className="p-2 text-left text-muted">First rows as they will be read{parsed.intervalMinutes ? `, ${parsed.intervalMinutes}-minute intervals` : ''} (times in the site zone, interval start)</caption>
                     <thead><tr><th scope="col" className="text-right">Row</th><th scope="col">Meter</th><th scope="col">Interval start</th><th scope="col" className="text-right">Energy</th><th scope="col" className="text-right">Lagging</th><th scope="col" className="text-right">Leading</th></tr></thead>
                     <tbody>{parsed.rows.map((r, i) => (
-                      <tr key={i}><td className="figure">{r.row}</td><td>{r.meterId}</td><td className="font-mono text-xs">{r.start}</td><td className="figure">{num(r.kwh, 3)}<span className="unit">kWh</span></td><td className="figure text-lagging">{num(r.kvarhLag, 3)}<span className="unit">kvarh</span></td><td className="figure text-leading">{num(r.kvarhLead, 3)}<span className="unit">kvarh</span></td></tr>
+                      <tr key={i}><td className="figure">{r.row}</td><td>{r.meterId}</td><td className="font-mono text-xs">{r.start}</td><td className="figure">{num(r.kwh, 3)}<span className="unit">kWh</span></td><td className="figure text-lagging">{num(r.kvarhLag, 3)}<span className="unit">kvarh</span></td><td className="figure text-leading-ink">{num(r.kvarhLead, 3)}<span className="unit">kvarh</span></td></tr>
                     ))}</tbody>
                   </table>
                 </div>

@@ -76,7 +76,8 @@ export function evaluatePlan(inputs: SiteInputs, spec: PlanSpec): PlanEvaluation
   const hours = periods.reduce((s, p) => s + p.hours, 0);
   const annualFactor = annualFactorOf(hours);
   const kvar = specKvar(spec.bank);
-  const notes = [...inputs.notes, ...sim.notes];
+  // The fixed bank's own over-correction note is covered by the leading message.
+  const notes = [...inputs.notes, ...(plan.kind === 'switched' ? sim.notes : [])];
   if (annualFactor !== 1) notes.push(`The data cover ${Math.round(hours)} hours; charges were scaled by ${annualFactor.toFixed(3)} to a year.`);
 
   // Average lagging PF of the whole data before and after, and the peak kW (for the optional lines).
@@ -89,8 +90,10 @@ export function evaluatePlan(inputs: SiteInputs, spec: PlanSpec): PlanEvaluation
   const s = sim.summary;
   const addedHours = s.periods.reduce((acc, p) => acc + p.addedLeadingHours, 0);
   const goesLeading = addedHours > 0;
+  const over = s.overCorrectedPeriods;
+  const overText = over.length === 0 ? '' : over.length <= 3 ? `; over-corrected at light load in ${over.join(', ')}` : `; over-corrected at light load in ${over.length} of ${periods.length} months`;
   const leadingMessage = goesLeading
-    ? `With this bank the site runs leading for ${s.leadingHours.toFixed(1)} hours a year of data (${addedHours.toFixed(1)} added by the bank), ${s.leadingKvarh.toFixed(0)} kvarh leading, worst ${s.worstLeadPf?.toFixed(3) ?? '—'} lead${s.overCorrectedPeriods.length ? `; over-corrected at light load in ${s.overCorrectedPeriods.join(', ')}` : ''}. Check the utility's rules on leading power and the voltage at light load.`
+    ? `With this bank the site runs leading for ${s.leadingHours.toLocaleString('en-US', { maximumFractionDigits: 0 })} h of the data (${addedHours.toLocaleString('en-US', { maximumFractionDigits: 0 })} h added by the bank), ${s.leadingKvarh.toLocaleString('en-US', { maximumFractionDigits: 0 })} kvarh leading, worst PF ${s.worstLeadPf?.toFixed(3) ?? '—'} lead${overText}. Check the utility's rules on leading power and the voltage at light load, or choose a Switched bank.`
     : null;
 
   // Screening from the site's transformer and voltage.

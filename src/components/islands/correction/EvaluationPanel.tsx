@@ -7,7 +7,7 @@ function Figure({ label, children, tone }: { label: string; children: React.Reac
   return (
     <div className="flex flex-col border-l border-rule pl-3">
       <dt className="text-xs text-muted">{label}</dt>
-      <dd className={`figure text-left text-base ${tone ?? ''}`}>{children}</dd>
+      <dd className={`figure whitespace-normal text-left text-base ${tone ?? ''}`}>{children}</dd>
     </div>
   );
 }
@@ -38,7 +38,7 @@ export function EvaluationPanel({ ev, stale }: { ev: PlanEvaluation; stale: bool
 
       {ev.leading.goesLeading && (
         <p className="notice border-l-leading text-sm" role="status" data-testid="leading-warning">
-          <span className="font-medium text-leading">▼ Leading:</span> {ev.leading.message}
+          <span className="font-medium text-leading-ink">▼ Leading:</span> {ev.leading.message}
         </p>
       )}
 
@@ -59,7 +59,7 @@ export function EvaluationPanel({ ev, stale }: { ev: PlanEvaluation; stale: bool
                   <td className="figure text-cost">{money(m.before, c)}</td>
                   <td className="figure">{money(m.after, c)}</td>
                   <td className="figure text-saving">{money(m.saving, c)}</td>
-                  <td className={`figure ${m.overCorrected ? 'text-leading' : ''}`}>{num(m.leadingHours, 1)}<span className="unit">h</span>{m.overCorrected && ' ▼ over-corrected'}</td>
+                  <td className={`figure ${m.overCorrected ? 'text-leading-ink' : ''}`}>{num(m.leadingHours, 1)}<span className="unit">h</span>{m.overCorrected && ' ▼ over-corrected'}</td>
                 </tr>
               ))}
             </tbody>

@@ -41,7 +41,7 @@ export function SizingTable({ siteId, currency, onUse }: { siteId: string; curre
       { id: 'paybackYears', header: 'Payback', accessorFn: (r) => r.paybackYears ?? Number.POSITIVE_INFINITY, meta: { num: true }, cell: (c) => (c.row.original.paybackYears === null ? 'not paid back' : <>{years(c.row.original.paybackYears)}<span className="unit">years</span></>) },
       { id: 'npv', header: 'NPV', accessorKey: 'npv', meta: { num: true }, cell: (c) => <span className={c.row.original.npv < 0 ? 'text-cost' : ''}>{money(c.row.original.npv, cur, 0)}</span> },
       { id: 'irr', header: 'IRR', accessorFn: (r) => r.irr ?? -Infinity, meta: { num: true }, cell: (c) => pct(c.row.original.irr) },
-      { id: 'leadingHours', header: 'Leading', accessorKey: 'leadingHours', meta: { num: true }, cell: (c) => <span className={c.row.original.leadingHours > 0 ? 'text-leading' : ''}>{num(c.row.original.leadingHours)}<span className="unit">h</span></span> },
+      { id: 'leadingHours', header: 'Leading', accessorKey: 'leadingHours', meta: { num: true }, cell: (c) => <span className={c.row.original.leadingHours > 0 ? 'text-leading-ink' : ''}>{num(c.row.original.leadingHours)}<span className="unit">h</span></span> },
       {
         id: 'marks',
         header: 'Marks',

@@ -1,0 +1,146 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { inject } from 'vitest';
+import { readFileSync } from 'node:fs';
+import ExcelJS from 'exceljs';
+import AxeBuilder from '@axe-core/playwright';
+import type { Browser, Page } from 'playwright-core';
+import { launch, SHOTS } from '../support/browser';
+import { DEMO } from '../support/http';
+
+let browser: Browser;
+const base = inject('baseUrl');
+const tag = Date.now().toString(36);
+const FIXED = `Journey fixed ${tag}`;
+const SWITCHED = `Journey switched ${tag}`;
+let siteId = '';
+
+beforeAll(async () => {
+  browser = await launch();
+});
+afterAll(async () => {
+  await browser?.close();
+});
+
+async function signIn(page: Page, email: string) {
+  await page.goto(`${base}/sign-in`);
+  await page.getByLabel('E-mail').fill(email);
+  await page.getByLabel('Password').fill(DEMO.password);
+  await page.getByRole('button', { name: 'Sign in' }).click();
+  // Finance lands on Payback, the others on the Portfolio.
+  await page.waitForURL((u) => !u.pathname.startsWith('/sign-in'));
+}
+
+/** Accessibility check: no serious or critical axe violations on the page as shown. */
+async function axeSerious(page: Page) {
+  const r = await new AxeBuilder({ page }).analyze();
+  return r.violations.filter((v) => v.impact === 'serious' || v.impact === 'critical').map((v) => `${v.id}: ${v.nodes.map((n) => n.target.join(' ')).slice(0, 3).join(', ')}`);
+}
+
+describe('Correction and Payback in Chromium', () => {
+  it('a Consultant builds and saves a Fixed and a Switched plan on Brackwater Kiln Works and sees the cautions', async () => {
+    const ctx = await browser.newContext({ viewport: { width: 1280, height: 900 } });
+    const page = await ctx.newPage();
+    await signIn(page, DEMO.consultant);
+    // The consultant belongs to two workspaces: make Northgate Ceramics the active one.
+    const workspaces = (await (await page.request.get(`${base}/api/workspaces`)).json()).workspaces as { id: string; name: string }[];
+    const northgate = workspaces.find((w) => w.name === 'Northgate Ceramics')!;
+    expect((await page.request.put(`${base}/api/workspaces/active`, { data: { workspaceId: northgate.id }, headers: { origin: base } })).status()).toBe(200);
+    const sites = (await (await page.request.get(`${base}/api/sites`)).json()).sites as { id: string; name: string }[];
+    siteId = sites.find((s) => s.name === 'Brackwater Kiln Works')!.id;
+
+    await page.goto(`${base}/sites/${siteId}`);
+    await page.getByRole('navigation', { name: 'Site sections' }).getByRole('link', { name: 'Correction' }).click();
+    await page.waitForURL(`${base}/sites/${siteId}/correction`);
+    // The seeded plans are listed.
+    await expect.poll(() => page.getByRole('table', { name: 'Saved plans' }).getByText('Kiln hall fixed 150 kvar').count()).toBe(1);
+
+    // Sizing search, then a Fixed bank of at least 150 kvar from the table.
+    await page.getByRole('button', { name: 'Run sizing search' }).click();
+    const sizing = page.getByRole('table', { name: 'Sizing candidates' });
+    await expect.poll(() => sizing.locator('tbody tr').count(), { timeout: 30_000 }).toBeGreaterThan(20);
+    expect(await sizing.locator('tr[data-best-npv]').getByText('★ Best NPV').count()).toBe(1);
+    expect(await sizing.locator('tr[data-shortest-payback]').getByText('◆ Shortest payback').count()).toBe(1);
+    expect(await page.getByTestId('textbook').textContent()).toMatch(/Qc = P \(tan φ1 − tan φ2\)/);
+    const fixedButtons = sizing.getByRole('button', { name: /^Use this size: Fixed bank, \d+ kvar$/ });
+    const labels = await fixedButtons.evaluateAll((els) => els.map((e) => e.getAttribute('aria-label') ?? ''));
+    const pick = labels.find((l) => Number(/(\d+) kvar/.exec(l)![1]) >= 150)!;
+    await page.getByRole('button', { name: pick, exact: true }).click();
+    await page.screenshot({ path: `${SHOTS}/correction-sizing.png`, fullPage: true });
+    await page.getByLabel('Plan name').fill(FIXED);
+    await expect.poll(() => page.getByRole('heading', { name: `Evaluation: ${FIXED}` }).count(), { timeout: 20_000 }).toBe(1);
+    // A Fixed bank this large runs the plant leading at light load (the seeded 150 kvar plan does).
+    await expect.poll(() => page.getByTestId('leading-warning').count()).toBe(1);
+    expect(await page.getByTestId('resonance').textContent()).toMatch(/Resonance near harmonic/);
+    const cautions = page.getByRole('region', { name: /Cautions/ });
+    for (const t of ['Qualified persons', 'Harmonic resonance', 'Switching transients', 'Voltage rise at light load', 'Protection and discharge', 'Estimates, not a design']) expect(await cautions.getByText(t).count()).toBe(1);
+    expect(await cautions.textContent()).toMatch(/licensed engineer/);
+    await page.screenshot({ path: `${SHOTS}/correction-fixed.png`, fullPage: true });
+    await page.getByRole('button', { name: 'Save plan' }).click();
+    await expect.poll(() => page.getByText(`Saved the plan “${FIXED}”.`).count()).toBe(1);
+
+    // A Switched bank typed into the builder.
+    await page.getByRole('button', { name: 'New plan', exact: true }).click();
+    const builder = page.getByRole('form', { name: 'Plan builder' });
+    await builder.getByLabel('Plan name').fill(SWITCHED);
+    await builder.getByLabel('Switched bank (n steps)').check();
+    await builder.getByLabel('Total size').fill('250');
+    await builder.getByLabel('Number of equal steps').fill('5');
+    await builder.getByLabel('Controller target PF').fill('0.96');
+    await builder.getByLabel('Discount rate').fill('5');
+    await expect.poll(() => builder.getByText('Discount rate is a fraction: 0.08 means 8 %; at most 1 (100 %).').count()).toBe(1);
+    await builder.getByLabel('Discount rate').fill('0.07');
+    await expect.poll(() => page.getByRole('heading', { name: `Evaluation: ${SWITCHED}` }).count(), { timeout: 20_000 }).toBe(1);
+    await page.getByRole('button', { name: 'Save plan' }).click();
+    await expect.poll(() => page.getByText(`Saved the plan “${SWITCHED}”.`).count()).toBe(1);
+    await expect.poll(() => page.getByRole('table', { name: 'Saved plans' }).getByText(SWITCHED).count()).toBe(1);
+    await page.screenshot({ path: `${SHOTS}/correction-switched.png`, fullPage: true });
+    expect(await axeSerious(page)).toEqual([]);
+    await ctx.close();
+  });
+
+  it('Finance opens Payback, sees both plans, downloads XLSX and CSV, and has no edit controls on Correction', async () => {
+    const ctx = await browser.newContext({ viewport: { width: 1280, height: 900 }, acceptDownloads: true });
+    const page = await ctx.newPage();
+    await signIn(page, DEMO.finance);
+    if (!page.url().endsWith('/payback')) await page.getByRole('link', { name: 'Payback', exact: true }).click();
+    await page.waitForURL(`${base}/payback`);
+    const table = page.getByRole('table', { name: 'Payback of saved plans' });
+    await expect.poll(() => table.getByText(FIXED).count()).toBe(1);
+    expect(await table.getByText(SWITCHED).count()).toBe(1);
+    expect(await table.getByRole('row').filter({ hasText: SWITCHED }).getByText('Switched bank (5 steps)').count()).toBe(1);
+    await page.screenshot({ path: `${SHOTS}/payback.png`, fullPage: true });
+    expect(await axeSerious(page)).toEqual([]);
+
+    const [xlsx] = await Promise.all([page.waitForEvent('download'), page.getByRole('link', { name: 'Download XLSX' }).click()]);
+    expect(xlsx.suggestedFilename()).toBe('varledger-payback-northgate-ceramics.xlsx');
+    const wb = new ExcelJS.Workbook();
+    await wb.xlsx.load(readFileSync((await xlsx.path())!));
+    const ws = wb.getWorksheet('Payback')!;
+    const header = (ws.getRow(1).values as unknown[]).slice(1);
+    const planCol = header.indexOf('Plan') + 1;
+    const names: unknown[] = [];
+    ws.eachRow((row, n) => { if (n > 1) names.push(row.getCell(planCol).value); });
+    expect(names).toEqual(expect.arrayContaining([FIXED, SWITCHED]));
+
+    const [csv] = await Promise.all([page.waitForEvent('download'), page.getByRole('link', { name: 'Download CSV' }).click()]);
+    expect(csv.suggestedFilename()).toBe('varledger-payback-northgate-ceramics.csv');
+    const text = readFileSync((await csv.path())!, 'utf8').replace(/^\uFEFF/, '');
+    const lines = text.trim().split(/\r\n/);
+    expect(lines[0]).toContain('Capex (currency)');
+    expect(lines.filter((l) => l.startsWith('Brackwater Kiln Works,Journey')).length).toBe(2);
+
+    await page.goto(`${base}/sites/${siteId}/correction`);
+    await expect.poll(() => page.getByRole('table', { name: 'Saved plans' }).getByText(FIXED).count()).toBe(1);
+    await page.getByRole('button', { name: `Open ${FIXED}` }).click();
+    await expect.poll(() => page.getByRole('heading', { name: `Evaluation: ${FIXED}` }).count(), { timeout: 20_000 }).toBe(1);
+    expect(await page.getByText('Read-only: your role sees plans').count()).toBe(1);
+    for (const name of [/^Save/, /^Rename/, /^Delete/, /^Use this size/, 'New plan']) expect(await page.getByRole('button', { name }).count()).toBe(0);
+    expect(await page.getByLabel('Plan name').isDisabled()).toBe(true);
+    expect(await page.getByRole('region', { name: /Cautions/ }).count()).toBe(1);
+    await page.screenshot({ path: `${SHOTS}/correction-finance.png`, fullPage: true });
+    expect(await axeSerious(page)).toEqual([]);
+    const denied = await page.request.post(`${base}/api/sites/${siteId}/plans`, { data: { name: 'By finance', bank: { kind: 'fixed', kvar: 50 }, costs: { perKvar: 30, fixedInstallation: 1000 }, finance: { discountRate: 0.08, lifeYears: 10 } }, headers: { origin: base } });
+    expect(denied.status()).toBe(403);
+    await ctx.close();
+  });
+});

@@ -2,7 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { inject } from 'vitest';
 import type { Browser } from 'playwright-core';
 import { launch, SHOTS } from '../support/browser';
-import { DEMO } from '../support/http';
+import { as, DEMO } from '../support/http';
 import { waitForMail } from '../support/mailbox';
 
 let browser: Browser;
@@ -90,6 +90,33 @@ describe('Consultant buys Site audits in Chromium', () => {
     expect(mail.text).toContain('Total paid: US$580.00');
     expect(mail.text).toContain('"Northgate Ceramics"');
     expect(mail.html).toContain(receiptNumber);
+    await ctx.close();
+  });
+
+  it('an Owner who goes back from the hosted page sees the checkout cancelled, nothing charged, and the site still offered', async () => {
+    const owner = await as(DEMO.owner);
+    const created = await owner.post('/api/sites', { name: 'Cancel Journey Annex', timeZone: 'Europe/London', currency: 'GBP' });
+    expect(created.status).toBe(201);
+    const ctx = await browser.newContext({ viewport: { width: 1280, height: 900 } });
+    const page = await ctx.newPage();
+    await page.goto(`${base}/sign-in`);
+    await page.getByLabel('E-mail').fill(DEMO.owner);
+    await page.getByLabel('Password').fill(DEMO.password);
+    await page.getByRole('button', { name: 'Sign in' }).click();
+    await page.waitForURL(`${base}/`);
+    await page.goto(`${base}/purchases`);
+    await page.getByLabel('Cancel Journey Annex').check();
+    await page.getByRole('button', { name: 'Pay for 1 Site audit' }).click();
+    await page.waitForURL(/\/checkout\/cs_test_/);
+    await page.getByRole('button', { name: 'Cancel and go back' }).click();
+    await page.waitForURL(/\/purchases\?checkout=cancelled&purchase=pur_/);
+    await expect.poll(() => page.getByRole('status').first().textContent(), WAIT).toBe('Checkout cancelled: nothing was charged for the Site audit of Cancel Journey Annex. Choose sites again when you are ready.');
+    await expect.poll(() => page.getByRole('row').filter({ hasText: 'Cancel Journey Annex' }).filter({ hasText: 'Cancelled' }).count(), WAIT).toBe(1);
+    expect(await page.getByLabel('Cancel Journey Annex').count()).toBe(1);
+    const purchaseId = new URL(page.url()).searchParams.get('purchase')!;
+    expect((await owner.get(`/api/purchases/${purchaseId}`)).json.purchase.status).toBe('cancelled');
+    expect((await owner.get(`/api/sites/${created.json.site.id}`)).json.site.auditState).toBe('draft');
+    await page.screenshot({ path: `${SHOTS}/purchases-cancelled.png`, fullPage: true });
     await ctx.close();
   });
 });

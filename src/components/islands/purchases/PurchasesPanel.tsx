@@ -31,7 +31,7 @@ function ReturnNotice({ returned, purchaseId, canBuy }: { returned: 'paid' | 'ca
   if (one.isError) return <p className="notice notice-error" role="alert">Could not read this purchase: {(one.error as Error).message}</p>;
   if (!one.data) return <p className="notice" role="status" aria-busy="true">Checking the purchase…</p>;
   const p = one.data.purchase;
-  const what = `${p.sites.length === 1 ? 'Site audit' : `${p.sites.length} Site audits`} for ${p.sites.map((s) => s.name).join(' and ')}`;
+  const what = p.sites.length === 1 ? `the Site audit of ${p.sites[0]!.name}` : `${p.sites.length} Site audits for ${p.sites.map((s) => s.name).join(', ').replace(/, ([^,]*)$/, ' and $1')}`;
   if (p.status === 'paid') return <p className="notice notice-ok" role="status">Paid: {what}. {p.sites.length === 1 ? 'The site is' : 'The sites are'} now Audited. Receipt {p.receiptNumber} was sent to {p.buyerEmail}.</p>;
   if (returned === 'paid' && p.status === 'pending') return <p className="notice" role="status" aria-busy="true">Payment sent for {what}. Waiting for the payment provider to confirm it; this page updates by itself.</p>;
   if (p.status === 'cancelled' || returned === 'cancelled') return <p className="notice" role="status">Checkout cancelled: nothing was charged for {what}. Choose sites again when you are ready.</p>;

@@ -1,7 +1,6 @@
-import { SeriesFlag } from '../series/interval-series';
 import { FIELD_COUNT, ZERO_KWH } from './aggregate-fields';
 import type { AggregationPlan } from './aggregation-plan';
-import { combinePatterns, mergeMaxima, resetAccumulator, scanRollingReadings } from './aggregate-combine';
+import { combinePatterns, mergeMaxima, scanRollingReadings } from './aggregate-combine';
 
 /**
  * Leading kvarh a capacitor bank adds to each interval: none, the same in every
@@ -35,7 +34,6 @@ export interface EqualStepController {
 export const CONTROLLER_EPS = 1e-9;
 
 const NONE: ReactiveCorrection = { kind: 'none' };
-const MISSING = SeriesFlag.reactiveMissing;
 
 // Field offsets, repeated here as literals because this is the hottest loop of the
 // engine: V8 folds literals, while reading them off an imported object costs time.
@@ -72,10 +70,11 @@ export const KERNEL_FIELDS = { kwh: KWH, kvarhLag: LAG, kvarhLead: LEAD, kvarhLe
  * to its leading kvarh, so a zero correction reproduces the meter's registers.
  */
 export function aggregate(plan: AggregationPlan, correction: ReactiveCorrection = NONE): Float64Array {
-  const { series, prefix, intervalSlot, patternAcc, blocks, blockSlot, peakBlockFlag, blockKvar } = plan;
-  const { kwh, kvarhLag, kvarhLead, flags } = series;
+  const { series, prefix, intervalSlot, patternAcc, blocks, blockSlot } = plan;
+  const { kwh, kvarhLag, kvarhLead } = series;
   const n = series.length;
-  resetAccumulator(patternAcc);
+  // kWh, counts and missing-kvarh tallies do not depend on the correction: start from them.
+  patternAcc.set(plan.baseAcc);
   const perInterval = correction.kind === 'per-interval' ? correction.kvarh : null;
   const constant = correction.kind === 'constant' ? correction.kvarh : 0;
   const ctl = correction.kind === 'equal-steps' ? correction : null;
@@ -102,7 +101,7 @@ export function aggregate(plan: AggregationPlan, correction: ReactiveCorrection 
   // Sums run in locals while the slot (period, window pattern) stays the same, which
   // holds for hours at a time, and are added to the slot's record when it changes.
   let current = -1;
-  let sKwh = 0, sLag = 0, sLead = 0, sLeadZero = 0, nImport = 0, nZero = 0, nExport = 0, sKwhExport = 0, nLeading = 0, nMissing = 0, leadRatio = 0, sLagExport = 0, sLeadExport = 0;
+  let sLag = 0, sLead = 0, sLeadZero = 0, nLeading = 0, leadRatio = 0, sLagExport = 0, sLeadExport = 0;
   for (let i = 0; i < n; i++) {
     const lag0 = kvarhLag[i];
     const lead0 = kvarhLead[i];
@@ -140,13 +139,10 @@ export function aggregate(plan: AggregationPlan, correction: ReactiveCorrection 
           maxQ = -Infinity; maxQb = -1; maxSq = -1; maxSqb = -1;
         }
         const q = blockSum * toKw;
-        if (bs >= 0) {
-          const k = blockKw[b];
-          const sq = k * k + q * q;
-          if (q > maxQ) { maxQ = q; maxQb = b; }
-          if (sq > maxSq) { maxSq = sq; maxSqb = b; }
-        }
-        if (peakBlockFlag[b] === 1) blockKvar[b] = q;
+        const k = blockKw[b];
+        const sq = k * k + q * q;
+        if (q > maxQ) { maxQ = q; maxQb = b; }
+        if (sq > maxSq) { maxSq = sq; maxSqb = b; }
         blockSum = 0;
         if (!oneToOne) {
           b++;
@@ -160,21 +156,16 @@ export function aggregate(plan: AggregationPlan, correction: ReactiveCorrection 
     if (slot !== current) {
       if (current >= 0) {
         const o = current * FIELD_COUNT;
-        patternAcc[o + KWH] += sKwh; patternAcc[o + LAG] += sLag; patternAcc[o + LEAD] += sLead; patternAcc[o + LEAD_ZERO] += sLeadZero;
-        patternAcc[o + IMPORT_N] += nImport; patternAcc[o + ZERO_N] += nZero; patternAcc[o + EXPORT_N] += nExport; patternAcc[o + KWH_EXPORT] += sKwhExport;
-        patternAcc[o + LEADING_N] += nLeading; patternAcc[o + MISSING_N] += nMissing;
+        patternAcc[o + LAG] += sLag; patternAcc[o + LEAD] += sLead; patternAcc[o + LEAD_ZERO] += sLeadZero;
+        patternAcc[o + LEADING_N] += nLeading;
         if (leadRatio > patternAcc[o + MAX_LEAD_RATIO]) patternAcc[o + MAX_LEAD_RATIO] = leadRatio;
         patternAcc[o + LAG_EXPORT] += sLagExport; patternAcc[o + LEAD_EXPORT] += sLeadExport;
       }
       current = slot;
-      sKwh = 0; sLag = 0; sLead = 0; sLeadZero = 0; nImport = 0; nZero = 0; nExport = 0; sKwhExport = 0; nLeading = 0; nMissing = 0; leadRatio = 0; sLagExport = 0; sLeadExport = 0;
+      sLag = 0; sLead = 0; sLeadZero = 0; nLeading = 0; leadRatio = 0; sLagExport = 0; sLeadExport = 0;
     }
-    if (slot < 0) continue;
-    if ((flags[i] & MISSING) !== 0) nMissing++;
     if (e > ZERO_KWH) {
-      sKwh += e; sLag += lag; sLead += lead; nImport++;
-      // The most leading interval is the one with the highest -kvar/kW; tracking the
-      // ratio (0 when lagging) avoids a sqrt and an unpredictable branch per interval.
+      sLag += lag; sLead += lead;
       // m is 2|Q| when leading, else 0; m / (m + 1e-300) is then exactly 1 or 0, a
       // count without a data-dependent branch (kvarh never comes near 1e-284).
       const m = Math.abs(net) - net;
@@ -182,25 +173,62 @@ export function aggregate(plan: AggregationPlan, correction: ReactiveCorrection 
       // Compare m / 2e with the running maximum by cross-multiplying: divide only on a new maximum.
       if (m > 2 * e * leadRatio) leadRatio = m / (2 * e);
     } else if (e < -ZERO_KWH) {
-      nExport++; sKwhExport -= e; sLagExport += lag; sLeadExport += lead;
+      sLagExport += lag; sLeadExport += lead;
     } else {
       // The registers still advance at zero kW, so their kvarh counts in the totals.
-      nZero++; sLag += lag; sLead += lead; sLeadZero += lead;
+      sLag += lag; sLead += lead; sLeadZero += lead;
     }
   }
   if (current >= 0) {
     const o = current * FIELD_COUNT;
-    patternAcc[o + KWH] += sKwh; patternAcc[o + LAG] += sLag; patternAcc[o + LEAD] += sLead; patternAcc[o + LEAD_ZERO] += sLeadZero;
-    patternAcc[o + IMPORT_N] += nImport; patternAcc[o + ZERO_N] += nZero; patternAcc[o + EXPORT_N] += nExport; patternAcc[o + KWH_EXPORT] += sKwhExport;
-    patternAcc[o + LEADING_N] += nLeading; patternAcc[o + MISSING_N] += nMissing;
+    patternAcc[o + LAG] += sLag; patternAcc[o + LEAD] += sLead; patternAcc[o + LEAD_ZERO] += sLeadZero;
+    patternAcc[o + LEADING_N] += nLeading;
     if (leadRatio > patternAcc[o + MAX_LEAD_RATIO]) patternAcc[o + MAX_LEAD_RATIO] = leadRatio;
     patternAcc[o + LAG_EXPORT] += sLagExport; patternAcc[o + LEAD_EXPORT] += sLeadExport;
   }
   if (fused) {
     if (bCur >= 0) mergeMaxima(patternAcc, bCur * FIELD_COUNT, maxQ, maxQb, maxSq, maxSqb);
+    peakReadingKvar(plan, correction);
   } else {
     scanRollingReadings(plan);
   }
   combinePatterns(plan);
   return plan.acc;
+}
+
+/**
+ * Net kvar of each peak-kW reading under the correction, recomputed after the pass from
+ * the few readings concerned so the hot loop carries no per-reading flag.
+ */
+function peakReadingKvar(plan: AggregationPlan, correction: ReactiveCorrection): void {
+  const { series, blocks, peakBlock, blockKvar } = plan;
+  const toKw = 60 / blocks.windowMinutes;
+  for (let slot = 0; slot < peakBlock.length; slot++) {
+    const b = peakBlock[slot];
+    if (b < 0) continue;
+    let sum = 0;
+    for (let i = blocks.first[b]; i < blocks.end[b]; i++) {
+      if (series.kwh[i] < -ZERO_KWH) continue;
+      sum += series.kvarhLag[i] - series.kvarhLead[i] - bankKvarhAt(series, correction, i);
+    }
+    blockKvar[b] = sum * toKw;
+  }
+}
+
+/** The bank kvarh of one interval under a correction (the kernel's rule, for a single interval). */
+function bankKvarhAt(series: AggregationPlan['series'], correction: ReactiveCorrection, i: number): number {
+  if (correction.kind === 'none') return 0;
+  if (correction.kind === 'constant') return correction.kvarh;
+  if (correction.kind === 'per-interval') return correction.kvarh[i];
+  const e = series.kwh[i];
+  if (!(e > ZERO_KWH)) return 0;
+  const ctl = correction;
+  // Same expressions, in the same order, as the pass (rounding must match to the last bit).
+  const cTarget = ctl.tanTarget * ctl.toPower * ctl.invStepKvar;
+  const cLimit = ctl.tanLimit * ctl.toPower * ctl.invStepKvar;
+  const cScale = ctl.toPower * ctl.invStepKvar;
+  const q = series.kvarhLag[i] - series.kvarhLead[i];
+  const kTarget = Math.ceil(q * cScale - e * cTarget - CONTROLLER_EPS);
+  const kRoom = Math.floor(q * cScale + e * cLimit + CONTROLLER_EPS);
+  return Math.max(0, Math.min(kTarget, kRoom, ctl.steps)) * ctl.stepKvarh;
 }

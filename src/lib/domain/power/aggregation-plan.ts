@@ -1,10 +1,11 @@
 import type { Period } from '../periods/period';
 import { periodRanges } from '../periods/period-ranges';
-import type { IntervalSeries } from '../series/interval-series';
+import { SeriesFlag, type IntervalSeries } from '../series/interval-series';
 import { localCalendarFor } from '../series/local-calendar';
 import type { TouWindow } from '../tariff/tou-window';
 import { buildWindowBits } from '../tariff/window-mask';
-import { FIELD_COUNT } from './aggregate-fields';
+import { Field, FIELD_COUNT, ZERO_KWH } from './aggregate-fields';
+import { resetAccumulator } from './aggregate-combine';
 import { buildDemandBlocks, type DemandBlocks, type DemandMethod } from './demand-blocks';
 
 export interface AggregationOptions {
@@ -43,6 +44,11 @@ export interface AggregationPlan {
   readonly peakBlock: Int32Array;
   /** Scratch: per (period, pattern) sums, FIELD_COUNT numbers each. */
   readonly patternAcc: Float64Array;
+  /**
+   * The part of `patternAcc` no correction changes (kWh, interval counts, missing kvarh)
+   * with every other field at its reset value; each pass starts from a copy of it.
+   */
+  readonly baseAcc: Float64Array;
   /** 1 for demand readings that are the kW peak of some (period, window). */
   readonly peakBlockFlag: Uint8Array;
   /** Scratch: net kvar of each peak reading under the current correction. */
@@ -123,6 +129,7 @@ export function createAggregationPlan(series: IntervalSeries, periods: readonly 
     blockSlot,
     peakBlock,
     patternAcc: new Float64Array(periods.length * P * FIELD_COUNT),
+    baseAcc: constantSums(series, intervalSlot, periods.length * P),
     peakBlockFlag: flagPeaks(peakBlock, blocks.count),
     blockKvar: new Float64Array(blocks.count),
     prefix: new Float64Array(blocks.partition ? 0 : n + 1),
@@ -134,4 +141,27 @@ function flagPeaks(peakBlock: Int32Array, count: number): Uint8Array {
   const flags = new Uint8Array(count);
   for (const b of peakBlock) if (b >= 0) flags[b] = 1;
   return flags;
+}
+
+/** Per-slot sums that do not depend on reactive correction, computed once per plan. */
+function constantSums(series: IntervalSeries, intervalSlot: Int32Array, slots: number): Float64Array {
+  const acc = new Float64Array(slots * FIELD_COUNT);
+  resetAccumulator(acc);
+  for (let i = 0; i < series.length; i++) {
+    const slot = intervalSlot[i];
+    if (slot < 0) continue;
+    const o = slot * FIELD_COUNT;
+    const e = series.kwh[i];
+    if ((series.flags[i] & SeriesFlag.reactiveMissing) !== 0) acc[o + Field.reactiveMissing] += 1;
+    if (e > ZERO_KWH) {
+      acc[o + Field.kwh] += e;
+      acc[o + Field.importIntervals] += 1;
+    } else if (e < -ZERO_KWH) {
+      acc[o + Field.exportIntervals] += 1;
+      acc[o + Field.kwhExport] -= e;
+    } else {
+      acc[o + Field.zeroKwIntervals] += 1;
+    }
+  }
+  return acc;
 }

@@ -76,19 +76,17 @@ function rollingBlocks(series: IntervalSeries, windowMinutes: number, method: De
   const toKw = 60 / windowMinutes;
   const step = series.intervalMinutes * 60_000;
   let lo = 0;
-  let sum = 0;
   for (let i = 0; i < n; i++) {
-    sum += Math.max(0, series.kwh[i]);
     // Keep only intervals that start inside the window ending with interval i.
     const windowStart = series.startMs[i] + step - span;
-    while (series.startMs[lo] < windowStart) {
-      sum -= Math.max(0, series.kwh[lo]);
-      lo++;
-    }
+    while (series.startMs[lo] < windowStart) lo++;
+    // Summed afresh for each reading (at most window / interval terms): no running-sum drift.
+    let sum = 0;
+    for (let j = lo; j <= i; j++) sum += Math.max(0, series.kwh[j]);
     first[i] = lo;
     end[i] = i + 1;
     anchor[i] = i;
-    kw[i] = Math.max(0, sum) * toKw;
+    kw[i] = sum * toKw;
   }
   return { windowMinutes, method, count: n, first, end, anchor, kw, partition: windowMinutes === series.intervalMinutes };
 }

@@ -95,6 +95,24 @@ describe('Correction and Payback in Chromium', () => {
     await expect.poll(() => page.getByRole('table', { name: 'Saved plans' }).getByText(SWITCHED).count()).toBe(1);
     await page.screenshot({ path: `${SHOTS}/correction-switched.png`, fullPage: true });
     expect(await axeSerious(page)).toEqual([]);
+
+    // A copy under the same name is refused (409, the name field says why); renamed and deleted under another name.
+    await page.getByRole('button', { name: 'Save as a new plan' }).click();
+    await expect.poll(() => builder.getByText('Already used on this site.').count()).toBe(1);
+    const COPY = `Journey copy ${tag}`;
+    await builder.getByLabel('Plan name').fill(COPY);
+    await page.getByRole('button', { name: 'Save as a new plan' }).click();
+    await expect.poll(() => page.getByText(`Saved the plan “${COPY}”.`).count()).toBe(1);
+    const saved = page.getByRole('table', { name: 'Saved plans' });
+    await page.getByRole('button', { name: `Rename ${COPY}` }).click();
+    await page.getByLabel(`New name for ${COPY}`).fill(`${COPY} renamed`);
+    await page.getByRole('button', { name: 'Save name' }).click();
+    await expect.poll(() => saved.getByText(`${COPY} renamed`, { exact: true }).count()).toBe(1);
+    await page.getByRole('button', { name: `Delete ${COPY} renamed` }).click();
+    await page.getByRole('button', { name: 'Delete for good' }).click();
+    await expect.poll(() => page.getByText(`Deleted the plan “${COPY} renamed”.`).count()).toBe(1);
+    expect(await saved.getByText(`${COPY} renamed`).count()).toBe(0);
+    expect(await saved.getByText(SWITCHED).count()).toBe(1);
     await ctx.close();
   });
 

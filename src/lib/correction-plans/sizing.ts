@@ -68,6 +68,6 @@ export function runSizing(inputs: SiteInputs, q: SizingQuery): SizingResult {
     shortestPaybackIndex: t.shortestPaybackIndex,
     textbook: t.textbook,
     assumptions: { fixedPerKvar: q.fixedPerKvar, switchedPerKvar: q.switchedPerKvar, fixedInstallation: q.fixedInstallation, detunedPremiumPerKvar: q.detunedPremiumPerKvar ?? null, omPctOfCapex: q.omPctOfCapex, discountRate: q.discountRate, lifeYears: q.lifeYears },
-    notes: [...inputs.notes, ...t.notes, 'Switched banks are simulated on interval averages: switching within an interval is not seen.'],
+    notes: [...inputs.notes, ...t.notes, ...(t.notes.some((n) => /within an interval/.test(n)) ? [] : ['Switched banks are simulated on interval averages: switching within an interval is not seen.'])],
   };
 }

@@ -18,7 +18,7 @@ import { KERNEL_FIELDS } from '../../../../src/lib/domain/power/aggregate-kernel
 import { applyBankKvarh } from '../../../../src/lib/domain/correction/apply-correction';
 import { switchedBankCorrection, switchedBankKvarhInto } from '../../../../src/lib/domain/correction/bank-kvarh';
 import { switchedBankSchema } from '../../../../src/lib/domain';
-import { constantSeries, seriesByTime } from '../support/factories';
+import { constantSeries, seriesByTime, seriesFrom } from '../support/factories';
 
 const START = Date.UTC(2025, 0, 1);
 const januaryOf = (s: { startMs: Float64Array; length: number }) => unwrap(monthlyPeriods({ fromMs: s.startMs[0], toMs: s.startMs[s.length - 1] + 1 }, 'UTC'));
@@ -153,5 +153,53 @@ describe('before and after a bank, per period and rule', () => {
     expect(c.periods[0].after).toBeCloseTo(0, 6);
     expect(c.saving).toBeCloseTo(c.periods[0].before, 9);
     expect(c.periods[0].rules[0]).toMatchObject({ ruleId: 'kv', before: c.periods[0].before });
+  });
+});
+
+describe('kernel paths agree with evaluating the corrected series', () => {
+  // Invented varied load with zero-kW and export intervals and a missing day, 15-min data.
+  const rows: [number, number][] = [];
+  for (let i = 0; i < 31 * 96; i++) {
+    const h = Math.floor((i % 96) / 4);
+    const kw = i % 97 === 0 ? 0 : i % 211 === 0 ? -30 : h >= 7 && h < 19 ? 250 + ((i * 37) % 90) : 30 + ((i * 13) % 25);
+    const kvar = kw <= 0 ? (i % 2 ? 8 : -5) : kw * (0.55 + ((i * 7) % 30) / 100);
+    rows.push([(kw * 15) / 60, (kvar * 15) / 60]);
+  }
+  const full = seriesFrom(START, 15, rows);
+  const keep = Array.from({ length: full.length }, (_, i) => i).filter((i) => i < 96 * 10 || i >= 96 * 11);
+  const s = seriesFrom(START, 15, keep.map((i) => rows[i]));
+  // seriesFrom spaces rows evenly; rebuild with the gap kept.
+  const gapped = { ...s, startMs: Float64Array.from(keep.map((i) => START + i * 15 * 60_000)) };
+  const periods = januaryOf(gapped);
+  const rules = [
+    { type: 'pf-billing-demand', id: 'bd', targetPf: 0.9, demandRatePerKw: 12, pfBasis: 'at-peak' },
+    { type: 'kva-billing-demand', id: 'kva', mode: 'peak-kva', demandRate: 3 },
+    { type: 'excess-kvar-demand', id: 'kv', allowance: { basis: 'pf', pf: 0.9 }, kvarSource: 'period-max', ratePerKvar: 2 },
+    { type: 'excess-kvarh', id: 'xr', kvarhBasis: 'absolute', allowance: { basis: 'ratio', kvarPerKw: 0.4 }, pricing: { kind: 'flat', ratePerKvarh: 0.01 }, window: { timeRanges: [{ from: '20:00', to: '06:00' }] } },
+    { type: 'leading-kvarh', id: 'ld', ratePerKvarh: 0.03, condition: 'zero-kw-only' },
+  ];
+  it.each([
+    [15, 'block', 'one reading per interval'],
+    [30, 'block', 'clock-aligned half-hour blocks'],
+    [30, 'rolling', 'rolling half-hour'],
+    [60, 'rolling', 'rolling hour'],
+  ])('%s-min %s demand (%s)', (demandWindowMinutes, demandMethod) => {
+    const tariff = unwrap(parseTariff({ name: 'Invented', currency: 'USD', demandWindowMinutes, demandMethod, rules }));
+    const prep = prepareTariff(tariff, gapped, periods);
+    for (const kvar of [0, 40, 120, 400]) {
+      const direct = evaluatePrepared(prep, { kind: 'constant', kvarh: kvar / 4 });
+      const viaSeries = evaluateTariff(tariff, applyBankKvarh(gapped, kvar / 4), periods);
+      direct.periods[0].rules.forEach((r, k) => {
+        const other = viaSeries.periods[0].rules[k];
+        expect(r.amount).toBeCloseTo(other.amount, 9);
+        for (const [key, value] of Object.entries(r.quantities)) expect(value ?? 0).toBeCloseTo(other.quantities[key] ?? 0, 9);
+      });
+      const bank = switchedBankSchema.parse({ kind: 'switched', stepsKvar: [kvar / 4 + 10, kvar / 4 + 10, kvar / 4 + 10, kvar / 4 + 10], targetPf: 0.97 });
+      const filled = new Float64Array(gapped.length);
+      switchedBankKvarhInto(gapped, bank, filled);
+      const inKernel = evaluatePrepared(prep, switchedBankCorrection(gapped, bank, new Float64Array(gapped.length)));
+      const viaFilled = evaluateTariff(tariff, applyBankKvarh(gapped, filled), periods);
+      expect(inKernel.byRule.map((r) => r.total)).toEqual(viaFilled.byRule.map((r) => expect.closeTo(r.total, 9)));
+    }
   });
 });

@@ -26,8 +26,8 @@ async function signIn(page: Page, email: string) {
   await page.goto(`${base}/`);
 }
 
-async function openTariff(page: Page) {
-  await page.getByRole('link', { name: 'Brackwater Kiln Works' }).first().click();
+async function openTariff(page: Page, site = 'Brackwater Kiln Works') {
+  await page.getByRole('link', { name: site }).first().click();
   await page.getByRole('navigation', { name: 'Site sections' }).getByRole('link', { name: 'Tariff' }).click();
   await expect.poll(() => page.getByRole('heading', { name: /^Versions/ }).count(), { timeout: 15_000 }).toBe(1);
 }
@@ -143,6 +143,21 @@ describe('tariff editor in Chromium', () => {
     await page.screenshot({ path: `${SHOTS}/tariff-from-example.png`, fullPage: true });
     await page.setViewportSize({ width: 390, height: 844 });
     await page.screenshot({ path: `${SHOTS}/tariff-editor-phone.png`, fullPage: true });
+    await page.getByRole('button', { name: 'Cancel' }).click();
+    await ctx.close();
+  });
+
+  it('a Consultant on a client site without meter data sees the preview say what to upload', async () => {
+    const ctx = await browser.newContext({ viewport: { width: 1280, height: 900 } });
+    const page = await ctx.newPage();
+    await signIn(page, DEMO.consultant);
+    await page.getByRole('combobox', { name: 'Workspace', exact: true }).selectOption({ label: 'Harrow Dairy Cooperative (Consultant)' });
+    await expect.poll(() => page.getByRole('link', { name: 'Harrow Creamery' }).count(), { timeout: 15_000 }).toBeGreaterThan(0);
+    await openTariff(page, 'Harrow Creamery');
+    await page.getByRole('button', { name: 'Copy the current version' }).click();
+    await expect.poll(() => page.getByText('No meter data for this site yet: upload meter data to preview charges.').count(), { timeout: 20_000 }).toBe(1);
+    expect(await page.getByRole('link', { name: 'Go to Meter data' }).count()).toBe(1);
+    await page.screenshot({ path: `${SHOTS}/tariff-preview-empty.png` });
     await page.getByRole('button', { name: 'Cancel' }).click();
     await ctx.close();
   });

@@ -95,17 +95,17 @@ function time<T>(fn: () => T, repeats: number): { ms: number; minMs: number; cpu
   return { ms: runs[Math.floor(runs.length / 2)], minMs: runs[0], cpuMs: cpu[Math.floor(cpu.length / 2)], value };
 }
 
-function run(intervalMinutes: number, sizes: number, repeats: number): void {
+function run(intervalMinutes: number, sizes: number, stepCounts: number[], repeats: number): void {
   const series = factoryYear(intervalMinutes, mulberry32(20250101));
   const periods = unwrap(monthlyPeriods(spanOf(series), ZONE));
-  const sizesKvar = Array.from({ length: sizes }, (_, k) => 25 * (k + 1));
+  const sizesKvar = Array.from({ length: sizes }, (_, k) => (1250 / sizes) * (k + 1));
   const full = () => {
     const metrics = computeMetrics(series, periods, { demandWindowMinutes: 15 });
     const evaluation = evaluateTariff(tariff, series, periods);
     const table = sizingSearch(tariff, series, periods, {
       sizesKvar,
       kinds: ['fixed', 'switched'],
-      stepCounts: [6],
+      stepCounts,
       targetPf: 0.95,
       costs: { fixed: { perKvar: 30, fixedCost: 4000 }, switched: { perKvar: 60, fixedCost: 6000 } },
       finance: { lifeYears: 15, discountRate: 0.08 },
@@ -118,7 +118,7 @@ function run(intervalMinutes: number, sizes: number, repeats: number): void {
   const seriesMb = [series.startMs, series.kwh, series.kvarhLag, series.kvarhLead, series.flags].reduce((sum, a) => sum + a.byteLength, 0) / 1e6;
   const best = res.value.table.rows[res.value.table.bestNpvIndex ?? 0];
   console.log(
-    `${intervalMinutes}-min data, ${series.length.toLocaleString('en-US')} intervals, ${candidates} candidates (${sizes} sizes x fixed + 6-step switched):\n` +
+    `${intervalMinutes}-min data, ${series.length.toLocaleString('en-US')} intervals, ${candidates} candidates (${sizes} sizes x fixed + switched with ${stepCounts.join('/')} steps):\n` +
       `  full evaluation ${res.ms.toFixed(1)} ms median, ${res.minMs.toFixed(1)} ms fastest, ${res.cpuMs.toFixed(1)} ms CPU median (${Math.round((series.length / res.ms) * 1000).toLocaleString('en-US')} intervals/s of site data)\n` +
       `  floor loop (sum kWh) ${floor.ms.toFixed(3)} ms; ratio full/floor ${(res.ms / floor.ms).toFixed(0)}x; per candidate pass ${(res.ms / (candidates + 2) / floor.ms).toFixed(1)}x floor\n` +
       `  memory: series arrays ${seriesMb.toFixed(1)} MB, process RSS ${(process.memoryUsage().rss / 1e6).toFixed(0)} MB\n` +
@@ -128,7 +128,9 @@ function run(intervalMinutes: number, sizes: number, repeats: number): void {
 
 // The machine is shared: print the load so a slow run can be read in context.
 console.log(`load average ${loadavg().map((x) => x.toFixed(2)).join(' ')} on ${availableParallelism()} cores`);
-run(15, 50, 20);
-run(15, 100, 10);
-run(1, 50, 5);
-run(1, 100, 5);
+// 100 candidates two ways: 50 sizes as fixed and 6-step switched banks, and 25 sizes as
+// fixed and 4-, 6- and 8-step switched banks (the web app's sizing table).
+run(15, 50, [6], 20);
+run(15, 25, [4, 6, 8], 20);
+run(1, 50, [6], 5);
+run(1, 25, [4, 6, 8], 5);

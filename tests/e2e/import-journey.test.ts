@@ -9,6 +9,7 @@ import { DEMO } from '../support/http';
 import { demoBillCsv, demoMeterCsv } from '../../src/lib/demo/meter-csv';
 
 let browser: Browser;
+const WAIT = { timeout: 20_000 };
 const base = inject('baseUrl');
 const dir = mkdtempSync(join(tmpdir(), 'varledger-journey-'));
 
@@ -44,16 +45,16 @@ describe('Energy manager imports meter data and bills in Chromium', () => {
     await page.getByRole('navigation', { name: 'Site sections' }).getByRole('link', { name: 'Meter data' }).click();
 
     await page.getByLabel('Meter export file').setInputFiles(meterFile);
-    await expect.poll(() => page.getByText('Check the columns').count()).toBe(1);
+    await expect.poll(() => page.getByText('Check the columns').count(), WAIT).toBe(1);
     expect(await page.getByLabel('Delimiter').inputValue()).toBe(';');
     expect(await page.getByLabel('Decimal separator').inputValue()).toBe(',');
     await page.getByLabel('Date order').selectOption('dmy');
     await page.getByRole('button', { name: 'Preview the first rows' }).click();
-    await expect.poll(() => page.getByText('First rows as they will be read, 30-minute intervals').count()).toBe(1);
+    await expect.poll(() => page.getByText('First rows as they will be read, 30-minute intervals').count(), WAIT).toBe(1);
     await page.screenshot({ path: `${SHOTS}/meter-mapping.png`, fullPage: true });
     await page.getByRole('button', { name: 'Import the whole file' }).click();
     await expect.poll(() => page.getByText(/^Imported 17,520 intervals/).count(), { timeout: 30_000 }).toBe(1);
-    await expect.poll(() => page.getByRole('region', { name: /Data quality of/ }).count()).toBe(1);
+    await expect.poll(() => page.getByRole('region', { name: /Data quality of/ }).count(), WAIT).toBe(1);
     await page.screenshot({ path: `${SHOTS}/meter-quality.png`, fullPage: true });
 
     await page.getByRole('navigation', { name: 'Site sections' }).getByRole('link', { name: 'Bills' }).click();

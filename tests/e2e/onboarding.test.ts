@@ -6,6 +6,7 @@ import { linkIn, waitForMail } from '../support/mailbox';
 import { uniqueEmail } from '../support/accounts';
 
 let browser: Browser;
+const WAIT = { timeout: 20_000 };
 const base = inject('baseUrl');
 
 beforeAll(async () => {
@@ -28,19 +29,19 @@ describe('onboarding journey in Chromium', () => {
     await page.getByLabel('Work e-mail').fill(ownerEmail);
     await page.getByLabel('Password').fill('journey-password-1');
     await page.getByRole('button', { name: 'Create account' }).click();
-    await expect.poll(() => page.getByRole('status').textContent()).toContain(ownerEmail);
+    await expect.poll(() => page.getByRole('status').textContent(), WAIT).toContain(ownerEmail);
 
     // Verify from the mail in the local sink.
     const verify = await waitForMail(ownerEmail, /Confirm your e-mail/);
     await page.goto(linkIn(verify, base));
-    await expect.poll(() => page.locator('h1').textContent()).toBe('Address confirmed');
+    await expect.poll(() => page.locator('h1').textContent(), WAIT).toBe('Address confirmed');
     await page.getByRole('link', { name: 'Create your first workspace' }).click();
 
     // Create a workspace, then a site.
     await page.getByLabel('Workspace name').fill('Holt Bakeries');
     await page.getByRole('button', { name: 'Create workspace' }).click();
     await page.waitForURL(`${base}/`);
-    await expect.poll(() => page.getByText('Holt Bakeries has no sites yet.').count()).toBe(1);
+    await expect.poll(() => page.getByText('Holt Bakeries has no sites yet.').count(), WAIT).toBe(1);
     await page.screenshot({ path: `${SHOTS}/portfolio-empty.png`, fullPage: true });
     await page.getByRole('button', { name: 'Add site' }).click();
     await page.getByLabel('Site name').fill('Holt Ovens North');
@@ -48,14 +49,14 @@ describe('onboarding journey in Chromium', () => {
     await page.getByLabel('Currency').fill('EUR');
     await page.getByLabel('Transformer rating (kVA)').fill('800');
     await page.getByRole('button', { name: 'Add site' }).last().click();
-    await expect.poll(() => page.getByRole('link', { name: 'Holt Ovens North' }).count()).toBe(1);
+    await expect.poll(() => page.getByRole('link', { name: 'Holt Ovens North' }).count(), WAIT).toBe(1);
 
     // Invite a Finance member.
     await page.goto(`${base}/members`);
     await page.getByLabel('E-mail').fill(financeEmail);
     await page.getByLabel('Role', { exact: true }).selectOption('finance');
     await page.getByRole('button', { name: 'Send invitation' }).click();
-    await expect.poll(() => page.getByRole('status').textContent()).toContain(`Invitation sent to ${financeEmail} as Finance`);
+    await expect.poll(() => page.getByRole('status').textContent(), WAIT).toContain(`Invitation sent to ${financeEmail} as Finance`);
     await page.screenshot({ path: `${SHOTS}/members-invited.png`, fullPage: true });
 
     // The invitee, in a fresh context: open the invitation, create an account, verify, accept.
@@ -69,12 +70,12 @@ describe('onboarding journey in Chromium', () => {
     await fpage.getByLabel('Work e-mail').fill(financeEmail);
     await fpage.getByLabel('Password').fill('finance-password-1');
     await fpage.getByRole('button', { name: 'Create account' }).click();
-    await expect.poll(() => fpage.getByRole('status').textContent()).toContain(financeEmail);
+    await expect.poll(() => fpage.getByRole('status').textContent(), WAIT).toContain(financeEmail);
     const fverify = await waitForMail(financeEmail, /Confirm your e-mail/);
     await fpage.goto(linkIn(fverify, base));
     await fpage.getByRole('link', { name: 'Continue' }).click();
     await fpage.waitForURL(inviteLink);
-    await expect.poll(() => fpage.getByText('as Finance').count()).toBe(1);
+    await expect.poll(() => fpage.getByText('as Finance').count(), WAIT).toBe(1);
     await fpage.getByRole('button', { name: 'Join Holt Bakeries' }).click();
     // Finance lands on its home, the payback table; the Portfolio is in the top bar.
     await fpage.waitForURL(`${base}/payback`);
@@ -82,7 +83,7 @@ describe('onboarding journey in Chromium', () => {
     await fpage.waitForURL(`${base}/?portfolio=1`);
 
     // Finance sees the site but no control to change it.
-    await expect.poll(() => fpage.getByRole('link', { name: 'Holt Ovens North' }).count()).toBe(1);
+    await expect.poll(() => fpage.getByRole('link', { name: 'Holt Ovens North' }).count(), WAIT).toBe(1);
     expect(await fpage.getByText('You are Finance in this workspace.').count()).toBe(1);
     expect(await fpage.getByRole('button', { name: 'Add site' }).count()).toBe(0);
     expect(await fpage.getByRole('button', { name: /^Edit / }).count()).toBe(0);

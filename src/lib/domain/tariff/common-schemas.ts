@@ -41,6 +41,10 @@ export const ratchetSchema = z
   .object({
     fraction: z.number().gt(0).max(1).describe('Share of the highest earlier billed demand that sets a floor, e.g. 0.8.'),
     lookbackPeriods: z.number().int().min(1).max(36).default(11).describe('How many earlier periods the ratchet looks back over.'),
+    basis: z
+      .enum(['measured', 'billed'])
+      .default('measured')
+      .describe('What earlier periods contribute: their measured (PF-adjusted) demand, or the demand finally billed, ratchet included.'),
   })
   .describe('Demand ratchet.');
 export type Ratchet = z.infer<typeof ratchetSchema>;

@@ -45,3 +45,22 @@ describe('excess reactive demand', () => {
     expect(r.quantities.ratchetPeriodsUsed).toBe(2);
   });
 });
+
+describe('ratchet basis: measured or billed', () => {
+  // Invented year: month 1 has 1,000 kvar of excess, the next twelve none (peak 1000 kW, kvar within allowance).
+  const months = [aggregateOf({ peakKw: 1000, peakKvar: 1000 + 1000 / 3 }), ...Array.from({ length: 12 }, () => aggregateOf({ peakKw: 1000, peakKvar: 300 }))];
+  const billableByMonth = (basis: 'measured' | 'billed') => {
+    const memory: { billableKvar: number }[] = [];
+    return months.map((agg) => {
+      const r = runRule(rule({ ratchet: { fraction: 0.8, basis } }), agg, memory);
+      memory.push(r.memory as { billableKvar: number });
+      return Number((r.quantities.billableKvar ?? 0).toFixed(6));
+    });
+  };
+  it.each([
+    ['measured', [1000, ...Array(11).fill(800), 0], 'common practice: the floor follows the highest measured excess of the previous 11 months, so month 13 is free'],
+    ['billed', [1000, ...Array(11).fill(800), 640], 'common practice: a floor on billed demand carries itself forward, 0.8 x 800 = 640 in month 13'],
+  ] as const)('%s basis', (basis, expected, _source) => {
+    expect(billableByMonth(basis)).toEqual(expected);
+  });
+});

@@ -56,5 +56,5 @@ export function evaluateExcessKvarDemand(rule: ExcessKvarDemandRule, input: Rule
   const billed = billable;
   quantities.billableKvar = billable;
   parts.push(() => `billable ${num(billed)} kvar × ${rate(rule.ratePerKvar, currency, 'kvar')} = ${money(amount, currency)}`);
-  return { amount, status: amount > 0 ? 'charge' : 'none', quantities, explain: () => `${parts.map((f) => f()).join('; ')}.`, memory: { billableKvar: billable } };
+  return { amount, status: amount > 0 ? 'charge' : 'none', quantities, explain: () => `${parts.map((f) => f()).join('; ')}.`, memory: { billableKvar: rule.ratchet?.basis === 'billed' ? billable : measured } };
 }

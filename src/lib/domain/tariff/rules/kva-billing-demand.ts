@@ -46,7 +46,7 @@ export function evaluateKvaBillingDemand(rule: KvaBillingDemandRule, input: Rule
   let formula = measured.text;
   const unit = measured.unit;
   const quantities: Record<string, number | null> = { peakKw: agg.peakKw, peakKva: agg.peakKva, billedDemand: billed, referenceDemand: reference };
-  const memory = { billed, reference };
+  const measuredMemory = { billed, reference };
   if (rule.ratchet) {
     const r = rule.ratchet;
     const fb = ratchetFloor(input.memory, 'billed', r.lookbackPeriods);
@@ -68,7 +68,7 @@ export function evaluateKvaBillingDemand(rule: KvaBillingDemandRule, input: Rule
     status: amount > 0 ? 'charge' : 'none',
     quantities,
     explain: () => `${formula()}; PF-related demand ${num(extra)} ${unit} × ${rate(rule.demandRate, currency, unit)} = ${money(amount, currency)}.`,
-    memory,
+    memory: rule.ratchet?.basis === 'billed' ? { billed, reference } : measuredMemory,
   };
 }
 

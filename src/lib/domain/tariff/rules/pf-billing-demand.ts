@@ -98,7 +98,9 @@ export function evaluatePfBillingDemand(rule: PfBillingDemandRule, input: RuleIn
   quantities.billingDemandWithoutPfKw = withoutPfKw;
   quantities.pfRelatedKw = pfKw;
   parts.push(() => `PF-related demand ${num(pfKw)} kW × ${rate(rule.demandRatePerKw, currency, 'kW')} = ${money(amount, currency)}`);
-  return { amount, status: amount > 0 ? 'charge' : 'none', quantities, explain: () => `${parts.map((f) => f()).join('; ')}.`, memory: { demandKw, adjustedKw } };
+  // A billed-basis ratchet remembers what was billed, ratchet included; else the measured demand.
+  const memory = rule.ratchet?.basis === 'billed' ? { demandKw: withoutPfKw, adjustedKw: billedKw } : { demandKw, adjustedKw };
+  return { amount, status: amount > 0 ? 'charge' : 'none', quantities, explain: () => `${parts.map((f) => f()).join('; ')}.`, memory };
 }
 
 function adjustmentFactor(rule: PfBillingDemandRule, pf: number): { value: number; text: (d: number) => string } {

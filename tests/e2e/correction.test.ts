@@ -111,7 +111,7 @@ describe('Correction and Payback in Chromium', () => {
     await page.getByRole('button', { name: `Delete ${COPY} renamed` }).click();
     await page.getByRole('button', { name: 'Delete for good' }).click();
     await expect.poll(() => page.getByText(`Deleted the plan “${COPY} renamed”.`).count()).toBe(1);
-    expect(await saved.getByText(`${COPY} renamed`).count()).toBe(0);
+    await expect.poll(() => saved.getByText(`${COPY} renamed`).count()).toBe(0);
     expect(await saved.getByText(SWITCHED).count()).toBe(1);
     await ctx.close();
   });
@@ -132,7 +132,8 @@ describe('Correction and Payback in Chromium', () => {
     const [xlsx] = await Promise.all([page.waitForEvent('download'), page.getByRole('link', { name: 'Download XLSX' }).click()]);
     expect(xlsx.suggestedFilename()).toBe('varledger-payback-northgate-ceramics.xlsx');
     const wb = new ExcelJS.Workbook();
-    await wb.xlsx.load(readFileSync((await xlsx.path())!));
+    const bytes = readFileSync((await xlsx.path())!);
+    await wb.xlsx.load(bytes.buffer.slice(bytes.byteOffset, bytes.byteOffset + bytes.byteLength) as ArrayBuffer);
     const ws = wb.getWorksheet('Payback')!;
     const header = (ws.getRow(1).values as unknown[]).slice(1);
     const planCol = header.indexOf('Plan') + 1;

@@ -9,6 +9,7 @@ import { seedDemo } from '../lib/demo/seed';
 import { seedDemoData } from '../lib/demo/seed-data';
 import { seedDemoPurchases } from '../lib/demo/seed-purchases';
 import { seedDemoPlans } from '../lib/demo/seed-plans';
+import { seedDemoReport } from '../lib/demo/seed-report';
 import { DEMO_PASSWORD, DEMO_PEOPLE, DEMO_WORKSPACES } from '../lib/demo/scenario';
 import { ROLE_LABELS } from '../lib/auth/permissions';
 import { startMailSink, type MailSink } from './lib/mail-sink';
@@ -30,6 +31,7 @@ const seeded = await seedDemo(db);
 const data = await seedDemoData(db);
 await seedDemoPurchases(db);
 await seedDemoPlans(db);
+await seedDemoReport(db);
 db.$client.close();
 
 let sink: MailSink | undefined;

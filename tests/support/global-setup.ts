@@ -13,6 +13,7 @@ import { seedDemo } from '../../src/lib/demo/seed';
 import { seedDemoData } from '../../src/lib/demo/seed-data';
 import { seedDemoPurchases } from '../../src/lib/demo/seed-purchases';
 import { seedDemoPlans } from '../../src/lib/demo/seed-plans';
+import { seedDemoReport } from '../../src/lib/demo/seed-report';
 import { startMailSink } from '../../src/scripts/lib/mail-sink';
 import { startAppServer } from '../../src/scripts/lib/app-server';
 import { startPaymentFake } from '../../src/scripts/lib/payment-fake';
@@ -51,6 +52,7 @@ export default async function setup(project: TestProject) {
   await seedDemoData(db);
   await seedDemoPurchases(db);
   await seedDemoPlans(db);
+  await seedDemoReport(db);
   db.$client.close();
 
   const [smtpPort, webPort, appPort] = [await freePort(), await freePort(), await freePort()];

@@ -38,6 +38,9 @@ export const DEMO_WORKSPACES: DemoWorkspace[] = [
     name: 'Harrow Dairy Cooperative',
     slug: 'harrow-dairy',
     members: [['consultant', 'consultant']],
-    sites: [{ name: 'Harrow Creamery', address: '5 Milkhouse Lane, Harrow, WI', timeZone: 'America/Chicago', utility: 'Prairie Valley Electric', accountNumber: 'PVE-771-2045', serviceVoltageV: 480, transformerKva: 750, transformerImpedancePct: 5.0, currency: 'USD' }],
+    sites: [
+      { name: 'Harrow Creamery', address: '5 Milkhouse Lane, Harrow, WI', timeZone: 'America/Chicago', utility: 'Prairie Valley Electric', accountNumber: 'PVE-771-2045', serviceVoltageV: 480, transformerKva: 750, transformerImpedancePct: 5.0, currency: 'USD' },
+      { name: 'Harrow Butter Works', address: '9 Churn Road, Harrow, WI', timeZone: 'America/Chicago', utility: 'Prairie Valley Electric', accountNumber: 'PVE-771-3310', serviceVoltageV: 480, transformerKva: 1000, transformerImpedancePct: 5.5, currency: 'USD' },
+    ],
   },
 ];

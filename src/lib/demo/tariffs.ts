@@ -99,4 +99,5 @@ export const DEMO_SITE_TARIFF: Record<string, string> = {
   'Tarn Valley Glaze Plant': 'kvarh-allowance',
   'Kestrel Bay Packaging': 'kva-demand',
   'Harrow Creamery': 'percent-surcharge',
+  'Harrow Butter Works': 'excess-kvar-demand',
 };

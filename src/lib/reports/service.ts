@@ -49,22 +49,22 @@ export async function getReport(db: Db, organizationId: string, siteId: string, 
   return db.query.savingsReport.findFirst({ where: and(eq(savingsReport.organizationId, organizationId), eq(savingsReport.siteId, siteId), eq(savingsReport.id, reportId)) });
 }
 
-export async function issueReport(db: Db, ctx: { organizationId: string; workspaceName: string; user: { id: string; name: string; email: string }; site: SiteDto }, input: z.infer<typeof IssueReportSchema>) {
+export async function issueReport(db: Db, ctx: { organizationId: string; workspaceName: string; user: { id: string; name: string; email: string }; site: SiteDto; notify?: boolean; now?: Date }, input: z.infer<typeof IssueReportSchema>) {
   const { organizationId, site, user } = ctx;
   requireAuditPaid(site);
   const plan = await getPlan(db, organizationId, site.id, input.planId);
   if (!plan) throw new ApiError(404, 'not_found', 'That plan was not found on this site. Save a plan on the Correction page first.', { planId: 'Not a saved plan of this site.' });
   const title = input.title ?? `Power-factor savings report: ${site.name}`;
-  const snapshot = await buildSnapshot(db, organizationId, { site, plan, workspaceName: ctx.workspaceName, issuedBy: { name: user.name, email: user.email }, title });
+  const snapshot = await buildSnapshot(db, organizationId, { site, plan, workspaceName: ctx.workspaceName, issuedBy: { name: user.name, email: user.email }, title, now: ctx.now });
   const id = newId('rpt');
   await db.transaction(async (tx) => {
-    await tx.insert(savingsReport).values({ id, organizationId, siteId: site.id, planId: plan.id, title, snapshot: snapshot as unknown as Record<string, unknown>, issuedBy: user.id });
+    await tx.insert(savingsReport).values({ id, organizationId, siteId: site.id, planId: plan.id, title, snapshot: snapshot as unknown as Record<string, unknown>, issuedBy: user.id, ...(ctx.now ? { issuedAt: ctx.now } : {}) });
     await tx.update(siteTable).set({ auditState: 'reported', updatedAt: new Date() }).where(and(eq(siteTable.organizationId, organizationId), eq(siteTable.id, site.id)));
   });
   await recordEvent(db, organizationId, user.id, { action: 'report.issued', subjectType: 'savings_report', subjectId: id, detail: { siteId: site.id, planId: plan.id, title } });
   // Finance members get a link; sending is retried and logged by the mailer.
   const base = getConfig().baseUrl;
-  const finance = (await listMembers(db, organizationId)).filter((m) => m.role === 'finance');
+  const finance = ctx.notify === false ? [] : (await listMembers(db, organizationId)).filter((m) => m.role === 'finance');
   const mails = finance.map((m) => sendMail(m.email, reportIssuedMail({ recipientName: m.name, siteName: site.name, workspaceName: ctx.workspaceName, issuedBy: user.name, reportUrl: `${base}/sites/${site.id}/reports/${id}` })));
   void Promise.allSettled(mails);
   const row = (await getReport(db, organizationId, site.id, id))!;

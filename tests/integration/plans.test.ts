@@ -118,6 +118,24 @@ describe('POST /api/sites/{siteId}/plans/evaluate', () => {
     expect(low.npv).toBeCloseTo(refNpv(0.09, [-e.capex, ...Array(12).fill(0.8 * e.annualSaving - e.omPerYear)]), 4);
   });
 
+  it('shows the optional benefit lines apart and counts them only when asked (domain notes section 3: 0.80 -> 0.95 cuts losses 29.09 %; 1000 kW releases 197.4 kVA)', async () => {
+    const qc = 400 * (Math.tan(Math.acos(0.8)) - Math.tan(Math.acos(0.95)));
+    const benefits = { lineLossCostPerYear: 10_000, releasedCapacityValuePerKvaYear: 20 };
+    const shown = (await finance.post(`/api/sites/${constantSite}/plans/evaluate`, spec({ bank: { kind: 'fixed', kvar: qc }, benefits }))).json.evaluation.economics;
+    const counted = (await finance.post(`/api/sites/${constantSite}/plans/evaluate`, spec({ bank: { kind: 'fixed', kvar: qc }, benefits: { ...benefits, countInFigures: true } }))).json.evaluation.economics;
+    const plain = (await finance.post(`/api/sites/${constantSite}/plans/evaluate`, spec({ bank: { kind: 'fixed', kvar: qc } }))).json.evaluation.economics;
+    expect(shown.optional).toHaveLength(2);
+    expect(shown.optional[0].label).toMatch(/Line-loss reduction 29\.09 % \(optional\)/);
+    expect(shown.optional[0].perYear).toBeCloseTo(2909, 0);
+    // 400 kW is 0.4 × the 1000 kW example: 500 − 421.05 = 78.95 kVA released (shown as 78.9) × 20 a kVA-year.
+    expect(shown.optional[1].label).toMatch(/Released capacity 78\.9 kVA \(optional\)/);
+    expect(shown.optional[1].perYear).toBeCloseTo(0.4 * 197.37 * 20, 0);
+    expect(shown.optionalCounted).toBe(false);
+    expect(shown.npv).toBeCloseTo(plain.npv, 6);
+    expect(counted.optionalCounted).toBe(true);
+    expect(counted.netAnnual - plain.netAnnual).toBeCloseTo(shown.optionalPerYear, 6);
+  });
+
   it('payback is "not paid back" (null) when savings do not cover O&M', async () => {
     const r = await finance.post(`/api/sites/${constantSite}/plans/evaluate`, spec({ costs: { perKvar: 1000, fixedInstallation: 100_000, omPctOfCapex: 50 } }));
     const e = r.json.evaluation.economics;

@@ -112,7 +112,9 @@ describe('tariff editor in Chromium', () => {
     await page.getByLabel('In force from').fill('2030-01-01');
     await page.getByRole('button', { name: 'Save version' }).click();
     await expect.poll(() => page.locator('#tf-effectiveFrom-err').textContent(), { timeout: 15_000 }).toBe('Already used by another version.');
+    // Changed fields are not thrown away without a confirmation.
     await page.getByRole('button', { name: 'Cancel' }).click();
+    await page.getByRole('button', { name: 'Discard' }).click();
 
     // Edit the saved version: its name changes in the list.
     await page.getByRole('button', { name: `Edit ${NEW_NAME} from 2030-01-01` }).click();
@@ -133,6 +135,17 @@ describe('tariff editor in Chromium', () => {
     const page = await ctx.newPage();
     await signIn(page, DEMO.energy);
     await openTariff(page);
+    // Fields the example leaves out show the engine's defaults once they apply.
+    await page.getByLabel('From an example tariff').selectOption({ label: 'Billing demand raised by target PF / actual PF' });
+    await page.getByRole('button', { name: 'New version from this example' }).click();
+    const ratio = page.getByRole('article', { name: /^Rule 1:/ });
+    expect(await ratio.getByLabel('Rounding of points').count()).toBe(0);
+    await ratio.getByLabel('Adjustment formula').selectOption('per-point');
+    expect(await ratio.getByLabel('Rounding of points').inputValue()).toBe('up');
+    expect(await ratio.getByLabel('Increase per PF point').inputValue()).toBe('1');
+    await page.getByRole('button', { name: 'Cancel' }).click();
+    await page.getByRole('button', { name: 'Discard' }).click();
+
     await page.getByLabel('From an example tariff').selectOption({ label: 'Percentage surcharge in tiers, with a credit' });
     await page.getByRole('button', { name: 'New version from this example' }).click();
     expect(await page.getByLabel('Currency').inputValue()).toBe('USD');

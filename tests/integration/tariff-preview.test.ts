@@ -87,8 +87,8 @@ describe('tariff preview', () => {
   });
 
   it('accepts a new rule of every type as the editor starts it', async () => {
-    const rules = RULE_TYPES.map((t) => ({ ...(initialValue(unionOption(tariffRuleSchema, t.type)!) as object), id: `new-${t.type}` }));
-    expect(rules.map((r) => (r as { type: string }).type)).toEqual(RULE_TYPES.map((t) => t.type));
+    const rules = RULE_TYPES.map((t) => ({ ...(initialValue(unionOption(tariffRuleSchema, t.type)!) as { type: string }), id: `new-${t.type}` }));
+    expect(rules.map((r) => r.type)).toEqual(RULE_TYPES.map((t) => t.type));
     const r = await energy.post(`/api/sites/${siteId}/tariffs/preview`, { name: 'Every rule type', currency: 'USD', effectiveFrom: '2026-01-01', rules });
     expect(r.status, JSON.stringify(r.json)).toBe(200);
     expect(r.json.preview.months[0].rules.map((x: { ruleId: string }) => x.ruleId)).toEqual(rules.map((x) => x.id));

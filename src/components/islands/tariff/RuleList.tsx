@@ -36,13 +36,17 @@ export function RuleList() {
   return (
     <section aria-labelledby="rules-heading" className="flex flex-col gap-3">
       <div className="flex items-baseline justify-between gap-2">
-        <h3 id="rules-heading" className="font-semibold">Rules <span className="font-normal text-muted">· evaluated in this order</span></h3>
+        <h3 id="rules-heading" tabIndex={-1} className="font-semibold">Rules <span className="font-normal text-muted">· evaluated in this order</span></h3>
       </div>
       {fields.length === 0 && <p className="notice">No rules yet: add the tariff’s power-factor clauses below.</p>}
       <ol className="flex flex-col gap-3">
         {fields.map((f, i) => (
           <li key={f._key as string}>
-            <RuleCard index={i} count={fields.length} onUp={() => move(i, i - 1)} onDown={() => move(i, i + 1)} onDuplicate={() => duplicate(i)} onRemove={() => remove(i)} />
+            <RuleCard index={i} count={fields.length} onUp={() => move(i, i - 1)} onDown={() => move(i, i + 1)} onDuplicate={() => duplicate(i)} onRemove={() => {
+                remove(i);
+                // The removed card held the focus: hand it to the list's heading.
+                document.getElementById('rules-heading')?.focus();
+              }} />
           </li>
         ))}
       </ol>

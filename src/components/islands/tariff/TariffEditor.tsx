@@ -30,7 +30,15 @@ const START_DATE = parts.right._zod.def.shape.effectiveFrom as z.ZodType;
 export type EditTarget = { id: string | null; title: string; values: Input; compareTo: string | null };
 
 export function TariffEditor({ siteId, target, onDone, onCancel }: { siteId: string; target: EditTarget; onDone: (saved: { name: string; effectiveFrom: string }) => void; onCancel: () => void }) {
-  const form = useForm<Input, unknown, Output>({ resolver: zodResolver(TariffVersionSchema), defaultValues: target.values, mode: 'onChange' });
+  // Start from the parsed values, so every default the engine would apply shows in its field.
+  const [initial] = useState(() => {
+    const parsed = TariffVersionSchema.safeParse(target.values);
+    return (parsed.success ? parsed.data : target.values) as Input;
+  });
+  const form = useForm<Input, unknown, Output>({ resolver: zodResolver(TariffVersionSchema), defaultValues: initial, mode: 'onChange' });
+  const [discarding, setDiscarding] = useState(false);
+  // Read during render so react-hook-form tracks it (its form state is a subscription proxy).
+  const { isDirty } = form.formState;
   const [serverError, setServerError] = useState<{ message: string; fields: Record<string, string> } | null>(null);
   const values = useWatch({ control: form.control });
   const currency = typeof values.currency === 'string' && /^[A-Z]{3}$/.test(values.currency) ? values.currency : 'USD';
@@ -86,7 +94,15 @@ export function TariffEditor({ siteId, target, onDone, onCancel }: { siteId: str
             {form.formState.isSubmitted && !form.formState.isValid && !serverError && <p className="notice notice-error" role="alert">Some fields need fixing before the version can be saved; each is marked in red.</p>}
             <div className="flex flex-wrap gap-2 border-t border-rule pt-3">
               <button type="submit" className="btn btn-primary" disabled={save.isPending}>{save.isPending ? 'Saving…' : 'Save version'}</button>
-              <button type="button" className="btn btn-quiet" onClick={onCancel}>Cancel</button>
+              {discarding ? (
+                <span className="flex flex-wrap items-center gap-2" role="group" aria-label="Discard the changes?">
+                  <span className="text-sm">Discard the changes to this version?</span>
+                  <button type="button" className="btn btn-danger text-sm" onClick={onCancel}>Discard</button>
+                  <button type="button" className="btn btn-quiet text-sm" onClick={() => setDiscarding(false)}>Keep editing</button>
+                </span>
+              ) : (
+                <button type="button" className="btn btn-quiet" onClick={() => (isDirty ? setDiscarding(true) : onCancel())}>Cancel</button>
+              )}
             </div>
           </form>
           <div className="lg:sticky lg:top-4">

@@ -1,6 +1,7 @@
+import { DateTime } from 'luxon';
 import { describe, expect, it } from 'vitest';
 import { billingPeriods, buildSeries, computeMetrics, unwrap } from '../../../../src/lib/domain';
-import { constantSeries, seriesFrom } from '../support/factories';
+import { constantSeries, seriesByTime, seriesFrom } from '../support/factories';
 
 // Invented readings, 15-min intervals from midnight UTC on 6 Jan 2025, as [kWh, signed kvarh]:
 const ROWS: [number, number][] = [
@@ -126,5 +127,31 @@ describe('missing reactive data', () => {
     const [m] = computeMetrics(s, day);
     expect(m.minIntervalPf).toBeCloseTo(25 / Math.hypot(25, 15), 12);
     expect(m.hoursBelowThreshold).toBe(0.25);
+  });
+});
+
+describe('demand blocks follow the local clock (IANA tz database via luxon)', () => {
+  it.each([
+    ['Asia/Kolkata', 60, 'UTC+05:30: hourly blocks start at :30 UTC'],
+    ['Australia/Adelaide', 30, 'UTC+10:30 / +09:30 with a clock change in April'],
+  ])('%s, %s-min demand from 15-min data', (zone, windowMinutes) => {
+    const start = Date.UTC(2025, 3, 1);
+    const s = seriesByTime(start, 10 * 96, 15, (_t, i) => ({ kw: 100 + ((i * 53) % 97), kvar: 20 }));
+    const periods = unwrap(billingPeriods([{ from: '2025-04-02', to: '2025-04-09' }], zone));
+    const [m] = computeMetrics(s, periods, { demandWindowMinutes: windowMinutes });
+    // Reference: group intervals by the local clock window they start in, using luxon per interval.
+    const sums = new Map<number, number>();
+    for (let i = 0; i < s.length; i++) {
+      const t = s.startMs[i];
+      if (t < periods[0].startMs || t >= periods[0].endMs) continue;
+      const d = DateTime.fromMillis(t, { zone });
+      const key = d.startOf('hour').plus({ minutes: Math.floor(d.minute / windowMinutes) * windowMinutes }).toMillis();
+      sums.set(key, (sums.get(key) ?? 0) + s.kwh[i]);
+    }
+    let best = -1;
+    let bestAt = 0;
+    for (const [key, kwh] of [...sums.entries()].sort((a, b) => a[0] - b[0])) if (kwh > best) [best, bestAt] = [kwh, key];
+    expect(m.peakKw).toBeCloseTo((best * 60) / windowMinutes, 9);
+    expect(m.peakAtMs).toBe(bestAt);
   });
 });

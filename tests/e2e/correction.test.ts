@@ -160,6 +160,13 @@ describe('Correction and Payback in Chromium', () => {
     expect(await axeSerious(page)).toEqual([]);
     const denied = await page.request.post(`${base}/api/sites/${siteId}/plans`, { data: { name: 'By finance', bank: { kind: 'fixed', kvar: 50 }, costs: { perKvar: 30, fixedInstallation: 1000 }, finance: { discountRate: 0.08, lifeYears: 10 } }, headers: { origin: base } });
     expect(denied.status()).toBe(403);
+    // Reading on a phone: the page still shows the cautions and the saved plans.
+    await page.setViewportSize({ width: 390, height: 844 });
+    expect(await page.getByRole('region', { name: /Cautions/ }).isVisible()).toBe(true);
+    await page.screenshot({ path: `${SHOTS}/correction-phone.png`, fullPage: true });
+    await page.goto(`${base}/payback`);
+    await expect.poll(() => page.getByRole('table', { name: 'Payback of saved plans' }).getByText(FIXED).count()).toBe(1);
+    await page.screenshot({ path: `${SHOTS}/payback-phone.png`, fullPage: true });
     await ctx.close();
   });
 });

@@ -91,7 +91,7 @@ function Panel({ siteId, currency, canEdit }: Props) {
       {plans.isError ? <p className="notice notice-error" role="alert">{(plans.error as Error).message}</p> : <SavedPlans plans={plans.data?.plans ?? []} openId={openId} canEdit={canEdit} onOpen={open} onRename={rename} onDelete={remove} />}
       <SizingTable siteId={siteId} currency={currency} onUse={canEdit ? useSize : null} />
       <div className="grid gap-4 lg:grid-cols-[minmax(0,5fr)_minmax(0,7fr)]">
-        <div className="flex flex-col gap-3">
+        <div className="flex min-w-0 flex-col gap-3">
           <PlanBuilder form={form} readOnly={!canEdit} currency={ev?.currency ?? currency} />
           <Cautions />
           {notice && <p className={`notice ${notice.ok ? 'notice-ok' : 'notice-error'} text-sm`} role={notice.ok ? 'status' : 'alert'}>{notice.text}</p>}
@@ -103,7 +103,7 @@ function Panel({ siteId, currency, canEdit }: Props) {
             </div>
           )}
         </div>
-        <div>
+        <div className="min-w-0">
           {spec === null && !ev && <p className="notice text-sm">Fill in the builder: the evaluation appears here as soon as the plan is complete.</p>}
           {evaluation.isError && <p className="notice notice-error" role="alert">{(evaluation.error as Error).message}</p>}
           {evaluation.isPending && spec !== null && <div className="h-64 animate-pulse rounded border border-rule bg-surface" aria-busy="true" aria-label="Evaluating the plan" />}

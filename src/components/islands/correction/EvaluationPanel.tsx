@@ -17,7 +17,7 @@ export function EvaluationPanel({ ev, stale }: { ev: PlanEvaluation; stale: bool
   const c = ev.currency;
   const s = ev.screening;
   return (
-    <section aria-labelledby="eval-h" className="card flex flex-col gap-3 p-3" aria-busy={stale || undefined}>
+    <section aria-labelledby="eval-h" className="card flex min-w-0 flex-col gap-3 p-3" aria-busy={stale || undefined}>
       <div className="flex flex-wrap items-baseline gap-2">
         <h2 id="eval-h">Evaluation{ev.plan.name ? `: ${ev.plan.name}` : ''}</h2>
         {stale && <span className="text-xs text-muted">updating…</span>}
@@ -69,7 +69,8 @@ export function EvaluationPanel({ ev, stale }: { ev: PlanEvaluation; stale: bool
 
       <div>
         <h3 className="text-sm font-medium">Sensitivity of the tariff savings</h3>
-        <table className="ledger mt-1 text-sm">
+        <div className="mt-1 overflow-x-auto">
+        <table className="ledger text-sm">
           <thead><tr><th scope="col">Savings</th><th scope="col" className="text-right">Saving a year</th><th scope="col" className="text-right">Payback</th><th scope="col" className="text-right">NPV</th><th scope="col" className="text-right">IRR</th></tr></thead>
           <tbody>
             {e.sensitivity.map((x) => (
@@ -83,6 +84,7 @@ export function EvaluationPanel({ ev, stale }: { ev: PlanEvaluation; stale: bool
             ))}
           </tbody>
         </table>
+        </div>
         {e.optional.length > 0 && (
           <ul className="mt-2 text-sm">
             {e.optional.map((o) => <li key={o.label}>{o.label}: <span className="figure inline">{money(o.perYear, c, 0)}</span><span className="unit">a year</span></li>)}

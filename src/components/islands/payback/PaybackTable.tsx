@@ -74,6 +74,7 @@ function View() {
       </div>
       <section aria-labelledby="totals-h">
         <h2 id="totals-h" className="mb-1">Totals by currency</h2>
+        <div className="overflow-x-auto rounded border border-rule">
         <table className="ledger text-sm" aria-labelledby="totals-h">
           <thead><tr><th scope="col">Currency</th><th scope="col" className="text-right">Plans</th><th scope="col" className="text-right">Size</th><th scope="col" className="text-right">Capex</th><th scope="col" className="text-right">Saving a year</th><th scope="col" className="text-right">O&M a year</th><th scope="col" className="text-right">NPV</th></tr></thead>
           <tbody>
@@ -90,6 +91,7 @@ function View() {
             ))}
           </tbody>
         </table>
+        </div>
         <p className="mt-1 text-xs text-muted">Totals are never added across currencies. Plans are alternatives on a site, so a site’s plans are not meant to be summed as one programme.</p>
       </section>
     </div>

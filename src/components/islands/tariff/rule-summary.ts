@@ -6,7 +6,7 @@ import { rate } from '@/lib/domain/tariff/format';
 import { tanPhi } from '@/lib/domain/power/quantities';
 
 const allowance = (a: Allowance) => (a.basis === 'pf' ? `PF ${a.pf} (k = ${tanPhi(a.pf).toFixed(4)})` : `${Number(a.kvarPerKw.toFixed(4))} kvar per kW`);
-const ratchet = (r: Ratchet | undefined) => (r ? `; ratchet ${Math.round(r.fraction * 100)} % of the highest of the previous ${r.lookbackPeriods} periods` : '');
+const ratchet = (r: Ratchet | undefined) => (r ? `; ratchet ${Math.round(r.fraction * 100)} % of the highest ${r.basis === 'billed' ? 'billed' : 'measured'} demand of the previous ${r.lookbackPeriods} periods` : '');
 const pfBasis = (b: string) => (b === 'at-peak' ? 'PF at the kW peak' : 'average PF');
 
 export function ruleSummary(rule: TariffRule, currency: string): string {

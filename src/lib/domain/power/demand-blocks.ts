@@ -33,13 +33,34 @@ export function demandWindowProblem(windowMinutes: number, intervalMinutes: numb
   return null;
 }
 
-/** Builds the demand readings of a series (kW uses import energy only). */
+// Readings depend only on stamps, kWh and the local clock, which corrected scenarios share
+// with their base series, so metrics, tariff and sizing on one series build them once.
+const cache = new WeakMap<Float64Array, WeakMap<Float64Array, Map<string, DemandBlocks>>>();
+
+/** Builds (or reuses) the demand readings of a series (kW uses import energy only). */
 export function buildDemandBlocks(series: IntervalSeries, cal: LocalCalendar, windowMinutes: number, method: DemandMethod): DemandBlocks {
   const problem = demandWindowProblem(windowMinutes, series.intervalMinutes);
   if (problem) throw new RangeError(problem);
-  return method === 'rolling' || windowMinutes === series.intervalMinutes
-    ? rollingBlocks(series, windowMinutes, method)
-    : clockBlocks(series, cal, windowMinutes);
+  let byKwh = cache.get(series.startMs);
+  if (!byKwh) {
+    byKwh = new WeakMap();
+    cache.set(series.startMs, byKwh);
+  }
+  let byKey = byKwh.get(series.kwh);
+  if (!byKey) {
+    byKey = new Map();
+    byKwh.set(series.kwh, byKey);
+  }
+  const key = `${cal.zone}|${series.intervalMinutes}|${windowMinutes}|${method}`;
+  let blocks = byKey.get(key);
+  if (!blocks) {
+    blocks =
+      method === 'rolling' || windowMinutes === series.intervalMinutes
+        ? rollingBlocks(series, windowMinutes, method)
+        : clockBlocks(series, cal, windowMinutes);
+    byKey.set(key, blocks);
+  }
+  return blocks;
 }
 
 function clockBlocks(series: IntervalSeries, cal: LocalCalendar, windowMinutes: number): DemandBlocks {
@@ -75,14 +96,18 @@ function rollingBlocks(series: IntervalSeries, windowMinutes: number, method: De
   const kw = new Float64Array(n);
   const toKw = 60 / windowMinutes;
   const step = series.intervalMinutes * 60_000;
+  const { startMs, kwh } = series;
   let lo = 0;
   for (let i = 0; i < n; i++) {
     // Keep only intervals that start inside the window ending with interval i.
-    const windowStart = series.startMs[i] + step - span;
-    while (series.startMs[lo] < windowStart) lo++;
+    const windowStart = startMs[i] + step - span;
+    while (startMs[lo] < windowStart) lo++;
     // Summed afresh for each reading (at most window / interval terms): no running-sum drift.
     let sum = 0;
-    for (let j = lo; j <= i; j++) sum += Math.max(0, series.kwh[j]);
+    for (let j = lo; j <= i; j++) {
+      const e = kwh[j];
+      if (e > 0) sum += e;
+    }
     first[i] = lo;
     end[i] = i + 1;
     anchor[i] = i;

@@ -8,6 +8,24 @@ import { clockMinutes, inTimeRange, type TouWindow } from './tou-window';
  * local day, so the cost is a few comparisons per interval.
  */
 export function buildWindowBits(cal: LocalCalendar, windows: readonly TouWindow[], holidays: readonly string[]): Uint32Array {
+  // Memoised per calendar: metrics, tariff and sizing on one series ask for the same bits.
+  const key = JSON.stringify([windows, holidays]);
+  let byKey = cache.get(cal);
+  if (!byKey) {
+    byKey = new Map();
+    cache.set(cal, byKey);
+  }
+  let bits = byKey.get(key);
+  if (!bits) {
+    bits = computeWindowBits(cal, windows, holidays);
+    byKey.set(key, bits);
+  }
+  return bits;
+}
+
+const cache = new WeakMap<LocalCalendar, Map<string, Uint32Array>>();
+
+function computeWindowBits(cal: LocalCalendar, windows: readonly TouWindow[], holidays: readonly string[]): Uint32Array {
   if (windows.length > 31) throw new RangeError('At most 31 distinct time-of-use windows per tariff.');
   const n = cal.localDay.length;
   const bits = new Uint32Array(n);

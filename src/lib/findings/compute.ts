@@ -8,7 +8,8 @@ import { computeMetrics, type PeriodMetrics } from '../domain/power/period-metri
 import { monthlyPeriods, spanOf } from '../domain/periods/monthly-periods';
 import { billingPeriods, type BillingRange } from '../domain/periods/billing-periods';
 import type { Period } from '../domain/periods/period';
-import { evaluateTariff, type RuleResult } from '../domain/tariff/evaluate-tariff';
+import type { RuleResult } from '../domain/tariff/evaluate-tariff';
+import { evaluateTariffVersions } from '../domain/tariff/evaluate-versions';
 import { tariffSchema, type Tariff } from '../domain/tariff/tariff-schema';
 import type { IntervalSeries } from '../domain/series/interval-series';
 
@@ -56,13 +57,6 @@ function toRuleCharge(r: RuleResult): RuleCharge {
   return { ruleId: r.ruleId, ruleLabel: r.ruleLabel, type: r.type, windowLabel: r.windowLabel, amount: r.amount, status: r.status, quantities: r.quantities, explanation: r.explanation };
 }
 
-/** Picks, for each period, the tariff version in force on its first local day. */
-function versionFor(period: Period, versions: (TariffVersionInput & { parsed: Tariff })[]) {
-  const day = DateTime.fromMillis(period.startMs, { zone: period.zone }).toISODate()!;
-  let best: (typeof versions)[number] | null = null;
-  for (const v of versions) if (v.effectiveFrom <= day && (!best || v.effectiveFrom > best.effectiveFrom)) best = v;
-  return best;
-}
 
 export type FindingsOutcome = { ok: true; findings: Findings } | { ok: false; status: 400 | 422; message: string };
 
@@ -99,27 +93,16 @@ export function computeFindings(input: FindingsInput): FindingsOutcome {
   const demandWindow = versions.at(-1)?.parsed.demandWindowMinutes;
   const metrics = computeMetrics(series, periods, { demandWindowMinutes: demandWindow, demandMethod: versions.at(-1)?.parsed.demandMethod });
 
-  // Evaluate consecutive runs of periods under the same version, so ratchets see earlier periods.
+  // The engine picks the version in force on each period's first local day and carries ratchet
+  // memory across versions for rules that keep their id.
+  const ev = versions.length ? evaluateTariffVersions(versions.map((v) => ({ id: v.id, effectiveFrom: v.effectiveFrom, tariff: v.parsed })), series, periods) : null;
+  const byVersion = new Map(versions.map((v) => [v.id, v]));
   const charges = new Map<string, { v: (typeof versions)[number]; total: number; rules: RuleCharge[]; warnings: string[] }>();
-  const byRule = new Map<string, { ruleId: string; ruleLabel: string; total: number }>();
-  let i = 0;
-  while (i < periods.length) {
-    const v = versionFor(periods[i]!, versions);
-    let j = i + 1;
-    while (j < periods.length && versionFor(periods[j]!, versions) === v) j++;
-    if (v) {
-      const run = periods.slice(i, j);
-      const ev = evaluateTariff(v.parsed, series, run);
-      ev.periods.forEach((pc) => charges.set(pc.periodId, { v, total: pc.total, rules: pc.rules.map(toRuleCharge), warnings: pc.warnings }));
-      for (const r of ev.byRule) {
-        const key = `${r.ruleId}\u0000${r.ruleLabel}`;
-        const acc = byRule.get(key) ?? { ruleId: r.ruleId, ruleLabel: r.ruleLabel, total: 0 };
-        acc.total += r.total;
-        byRule.set(key, acc);
-      }
-    }
-    i = j;
+  for (const pc of ev?.periods ?? []) {
+    const v = pc.versionId ? byVersion.get(pc.versionId) : undefined;
+    if (v) charges.set(pc.periodId, { v, total: pc.total, rules: pc.rules.map(toRuleCharge), warnings: pc.warnings });
   }
+  const byRule = new Map((ev?.byRule ?? []).map((r) => [`${r.ruleId}\u0000${r.ruleLabel}`, r]));
 
   const out: PeriodFinding[] = periods.map((p, k) => {
     const { periodId: _id, label: _label, ...m } = metrics[k]!;

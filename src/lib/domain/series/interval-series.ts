@@ -1,7 +1,7 @@
 /**
  * The compact in-memory form of one meter's interval data.
  *
- * Layout (see DECISIONS.md D1): parallel typed arrays indexed by interval, sorted by
+ * Layout (see DEVELOPERS.md, engine decision E1): parallel typed arrays indexed by interval, sorted by
  * start instant. Energies are stored per interval (kWh, kvarh), never as signed PF.
  * Reactive energy is held as two non-negative registers: `kvarhLag` (reactive drawn,
  * inductive, Q > 0) and `kvarhLead` (reactive supplied, capacitive, Q < 0). A meter

@@ -2,7 +2,7 @@ import { IANAZone } from 'luxon';
 
 /**
  * UTC-offset segments of an IANA zone over a time span, found with luxon once per
- * span so per-interval loops never call luxon (DECISIONS.md D7).
+ * span so per-interval loops never call luxon (DEVELOPERS.md, engine decision E2).
  * `startMs[k]` is the first instant at which `offsetMin[k]` applies.
  */
 export interface OffsetSegments {

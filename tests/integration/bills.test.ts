@@ -2,26 +2,16 @@ import { beforeAll, describe, expect, it } from 'vitest';
 import { as, Client, DEMO } from '../support/http';
 import { uploadFile } from '../support/upload';
 import { ownerOfNewWorkspace } from '../support/accounts';
+import { constantLoadCsv, constantLoadMapping } from '../support/constant-load';
 
 // Invented data: a constant 400 kW / 240 kvar load (100 kWh and 60 kvarh per quarter-hour), UTC stamps.
-function csv(fromIso: string, days: number) {
-  const t0 = Date.parse(fromIso);
-  const lines = ['Start,kWh,kvarh lag,kvarh lead'];
-  for (let i = 0; i < days * 96; i++) lines.push(`${new Date(t0 + i * 900_000).toISOString()},100,60,0`);
-  return lines.join('\n') + '\n';
-}
-const meterMapping = {
-  version: 1, delimiter: ',', decimalSeparator: '.',
-  timestamp: { column: 'Start', format: 'iso', zone: 'offset-in-stamp', stampAt: 'start' },
-  meters: [{ meterId: 'Main meter', active: { column: 'kWh', unit: 'kWh' }, reactive: { kind: 'lag-lead', lag: 'kvarh lag', lead: 'kvarh lead', unit: 'kvarh' } }],
-};
-// Excess kvar demand, k = 1/3, $0.40/kvar: 240 - 400/3 = 106.67 kvar -> $42.67 a period (formula-derived, domain notes section 2 shape 3).
+// Excess kvar demand, k = 1/3, $0.40/kvar: 240 - 400/3 = 106.67 kvar -> $42.67 a period (formula-derived: charge = rate × max(0, Q − k × P)).
 const tariff = { name: 'Reactive demand (invented)', currency: 'USD', effectiveFrom: '2020-01-01', rules: [{ type: 'excess-kvar-demand', id: 'kvar', allowance: { basis: 'ratio', kvarPerKw: 1 / 3 }, kvarSource: 'coincident', ratePerKvar: 0.4 }] };
 const PERIODS = [['2026-01-05', '2026-02-04', 31], ['2026-02-05', '2026-03-04', 28], ['2026-03-05', '2026-04-04', 31]] as const;
 
 async function siteWithData(c: Client, name: string) {
   const siteId = (await c.post('/api/sites', { name, timeZone: 'UTC', currency: 'USD' })).json.site.id;
-  const up = await uploadFile(c, `/api/sites/${siteId}/meter-data`, { name: `${name}.csv`, content: csv('2026-01-01T00:00:00Z', 100) }, { mapping: JSON.stringify(meterMapping) });
+  const up = await uploadFile(c, `/api/sites/${siteId}/meter-data`, { name: `${name}.csv`, content: constantLoadCsv('2026-01-01T00:00:00Z', 100) }, { mapping: JSON.stringify(constantLoadMapping) });
   expect(up.status, JSON.stringify(up.json)).toBe(201);
   expect((await c.post(`/api/sites/${siteId}/tariffs`, tariff)).status).toBe(201);
   return siteId;

@@ -42,7 +42,7 @@ beforeAll(async () => {
 });
 
 describe('GET /api/sites/{siteId}/findings', () => {
-  it('computes the worked kvar-demand check on a constant load (domain notes, section 5, formula-derived)', async () => {
+  it('computes the worked kvar-demand check on a constant load (worked example: 1000 kW, 750 kvar, k = 1/3, $0.40/kvar; formula-derived)', async () => {
     const r = await finance.get(`/api/sites/${siteId}/findings`);
     expect(r.status).toBe(200);
     const f = r.json;

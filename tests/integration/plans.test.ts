@@ -59,7 +59,7 @@ describe('POST /api/sites/{siteId}/plans/evaluate', () => {
     expect(r.status, JSON.stringify(r.json)).toBe(200);
     const ev = r.json.evaluation;
     expect(ev.pf.before).toBeCloseTo(0.8, 6);
-    // Printed tables subtract rounded tangents: tolerance 0.001 (domain notes, section 3).
+    // Printed tables subtract rounded tangents: tolerance 0.001 (IEEE Std 141 ch. 8 multiplier table, common practice).
     expect(Math.abs(ev.pf.after - 0.95)).toBeLessThan(0.001);
     expect(ev.leading.goesLeading).toBe(false);
     expect(ev.leading.hours).toBe(0);
@@ -68,7 +68,7 @@ describe('POST /api/sites/{siteId}/plans/evaluate', () => {
     expect(ev.months[0].before).toBeCloseTo((300 - 400 * Math.tan(Math.acos(0.95))) * 8, 2);
     expect(ev.months[0].rules[0].ruleId).toBe('kvar');
     expect(ev.months[0].after).toBeLessThan(ev.months[0].before * 0.01);
-    // Screening from the site's 1500 kVA, 5.75 % transformer (domain notes section 3: h = sqrt(kVA_sc / kvar), dV% = kvar × Z% / kVA).
+    // Screening from the site's 1500 kVA, 5.75 % transformer (IEEE Std 141 and common practice: h = sqrt(kVA_sc / kvar); dV% = kvar × Z% / kVA, from memory).
     expect(ev.screening.resonance.order).toBeCloseTo(Math.sqrt(1500 / 0.0575 / 168.4), 2);
     expect(ev.screening.voltageRise.risePct).toBeCloseTo((168.4 * 5.75) / 1500, 3);
     expect(ev.cautions.map((c: { id: string }) => c.id)).toEqual(expect.arrayContaining(['qualified-persons', 'harmonic-resonance', 'switching-transients', 'voltage-rise', 'protection-discharge', 'estimates']));
@@ -118,7 +118,7 @@ describe('POST /api/sites/{siteId}/plans/evaluate', () => {
     expect(low.npv).toBeCloseTo(refNpv(0.09, [-e.capex, ...Array(12).fill(0.8 * e.annualSaving - e.omPerYear)]), 4);
   });
 
-  it('shows the optional benefit lines apart and counts them only when asked (domain notes section 3: 0.80 -> 0.95 cuts losses 29.09 %; 1000 kW releases 197.4 kVA)', async () => {
+  it('shows the optional benefit lines apart and counts them only when asked (formula-derived: 1 − (PF1/PF2)², 0.80 -> 0.95 cuts losses 29.09 %; kW/PF1 − kW/PF2, 1000 kW releases 197.4 kVA)', async () => {
     const qc = 400 * (Math.tan(Math.acos(0.8)) - Math.tan(Math.acos(0.95)));
     const benefits = { lineLossCostPerYear: 10_000, releasedCapacityValuePerKvaYear: 20 };
     const shown = (await finance.post(`/api/sites/${constantSite}/plans/evaluate`, spec({ bank: { kind: 'fixed', kvar: qc }, benefits }))).json.evaluation.economics;

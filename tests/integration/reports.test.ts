@@ -4,15 +4,9 @@ import { Client } from '../support/http';
 import { uploadFile } from '../support/upload';
 import { linkIn, waitForMail } from '../support/mailbox';
 import { payOnHostedPage } from '../support/payments';
+import { constantLoadCsv, constantLoadMapping } from '../support/constant-load';
 
 // Invented data: a constant 400 kW / 240 kvar load (PF 0.857 lagging), UTC stamps, 100 days.
-function csv(days: number) {
-  const t0 = Date.parse('2026-01-01T00:00:00Z');
-  const lines = ['Start,kWh,kvarh lag,kvarh lead'];
-  for (let i = 0; i < days * 96; i++) lines.push(`${new Date(t0 + i * 900_000).toISOString()},100,60,0`);
-  return lines.join('\n') + '\n';
-}
-const meterMapping = { version: 1, delimiter: ',', decimalSeparator: '.', timestamp: { column: 'Start', format: 'iso', zone: 'offset-in-stamp', stampAt: 'start' }, meters: [{ meterId: 'Main meter', active: { column: 'kWh', unit: 'kWh' }, reactive: { kind: 'lag-lead', lag: 'kvarh lag', lead: 'kvarh lead', unit: 'kvarh' } }] };
 const tariff = { name: 'Reactive demand (invented)', currency: 'USD', effectiveFrom: '2020-01-01', rules: [{ type: 'excess-kvar-demand', id: 'kvar', allowance: { basis: 'ratio', kvarPerKw: 1 / 3 }, kvarSource: 'coincident', ratePerKvar: 4 }] };
 const plan = { name: 'Switched 200 kvar', bank: { kind: 'switched', totalKvar: 200, steps: 4, targetPf: 0.97 }, costs: { perKvar: 45, fixedInstallation: 3000, omPctOfCapex: 1 }, finance: { discountRate: 0.08, lifeYears: 15 } };
 
@@ -25,7 +19,7 @@ let planId: string;
 beforeAll(async () => {
   owner = await ownerOfNewWorkspace('reporter');
   siteId = (await owner.client.post('/api/sites', { name: 'Report check site', timeZone: 'UTC', currency: 'USD', transformerKva: 1000, transformerImpedancePct: 5.3, serviceVoltageV: 480 })).json.site.id;
-  expect((await uploadFile(owner.client, `/api/sites/${siteId}/meter-data`, { name: 'm.csv', content: csv(100) }, { mapping: JSON.stringify(meterMapping) })).status).toBe(201);
+  expect((await uploadFile(owner.client, `/api/sites/${siteId}/meter-data`, { name: 'm.csv', content: constantLoadCsv('2026-01-01T00:00:00Z', 100) }, { mapping: JSON.stringify(constantLoadMapping) })).status).toBe(201);
   expect((await owner.client.post(`/api/sites/${siteId}/tariffs`, tariff)).status).toBe(201);
   const saved = await owner.client.post(`/api/sites/${siteId}/plans`, plan);
   expect(saved.status, JSON.stringify(saved.json)).toBe(201);

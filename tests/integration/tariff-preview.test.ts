@@ -4,23 +4,12 @@ import { uploadFile } from '../support/upload';
 import { ownerOfNewWorkspace } from '../support/accounts';
 import { RULE_TYPES, tariffRuleSchema } from '../../src/lib/domain/tariff/rule-registry';
 import { initialValue, unionOption } from '../../src/components/islands/tariff/schema-walk';
+import { constantLoadCsv, constantLoadMapping } from '../support/constant-load';
 
 // Invented data: a constant 400 kW / 240 kvar load (100 kWh and 60 kvarh per quarter-hour), UTC stamps,
 // from 2026-01-01 for 59 days: January (31 days) and February (28 days) 2026 in full.
-function csv(fromIso: string, days: number) {
-  const t0 = Date.parse(fromIso);
-  const lines = ['Start,kWh,kvarh lag,kvarh lead'];
-  for (let i = 0; i < days * 96; i++) lines.push(`${new Date(t0 + i * 900_000).toISOString()},100,60,0`);
-  return lines.join('\n') + '\n';
-}
-const meterMapping = {
-  version: 1, delimiter: ',', decimalSeparator: '.',
-  timestamp: { column: 'Start', format: 'iso', zone: 'offset-in-stamp', stampAt: 'start' },
-  meters: [{ meterId: 'Main meter', active: { column: 'kWh', unit: 'kWh' }, reactive: { kind: 'lag-lead', lag: 'kvarh lag', lead: 'kvarh lead', unit: 'kvarh' } }],
-};
-
 // Saved tariff: excess kvar demand, k = 1/3, $0.40/kvar: (240 - 400/3) x 0.40 = $42.67 a month
-// (formula of clause shape 3, excess reactive demand, in our domain notes).
+// (formula-derived: charge = rate × max(0, Q − k × P), the excess reactive demand clause).
 const saved = { name: 'Saved reactive demand (invented)', currency: 'USD', effectiveFrom: '2020-01-01', rules: [{ type: 'excess-kvar-demand', id: 'kvar', allowance: { basis: 'ratio', kvarPerKw: 1 / 3 }, kvarSource: 'coincident', ratePerKvar: 0.4 }] };
 
 // Draft tariff, two rules, checked by hand:
@@ -46,7 +35,7 @@ let siteId: string;
 beforeAll(async () => {
   [energy, finance] = await Promise.all([as(DEMO.energy), as(DEMO.finance)]);
   siteId = (await energy.post('/api/sites', { name: 'Tariff preview check', timeZone: 'UTC', currency: 'USD' })).json.site.id;
-  const up = await uploadFile(energy, `/api/sites/${siteId}/meter-data`, { name: 'preview.csv', content: csv('2026-01-01T00:00:00Z', 59) }, { mapping: JSON.stringify(meterMapping) });
+  const up = await uploadFile(energy, `/api/sites/${siteId}/meter-data`, { name: 'preview.csv', content: constantLoadCsv('2026-01-01T00:00:00Z', 59) }, { mapping: JSON.stringify(constantLoadMapping) });
   expect(up.status, JSON.stringify(up.json)).toBe(201);
   expect((await energy.post(`/api/sites/${siteId}/tariffs`, saved)).status).toBe(201);
 });

@@ -15,7 +15,7 @@ const bill = (i: number, kwh: number, pfCharge: number | null, extra: Partial<Bi
 const pid = (i: number) => `2026-0${i}-05..2026-0${i + 1}-04`;
 
 describe('reconciliation', () => {
-  it('derives billed PF from kWh and kvarh: 10,000 kWh and 6,000 kvarh -> 0.857 (domain notes, worked check)', () => {
+  it('derives billed PF from kWh and kvarh: 10,000 kWh and 6,000 kvarh -> 0.857 (formula-derived: kWh / sqrt(kWh² + kvarh²))', () => {
     expect(billedPf({ pf: null, kwh: 10_000, kvarh: 6_000 })).toBeCloseTo(0.8575, 4);
   });
 

@@ -5,6 +5,7 @@ import { AUDIT_STATE_LABELS } from '@/lib/schemas/site';
 import { money, pct } from '@/lib/format';
 import { toCsv } from '@/lib/csv-export';
 import { PhaseDial } from './charts/PhaseDial';
+import { SortableHead } from './table/SortableHead';
 
 const STATE_CLASS = { draft: 'text-muted', audited: 'text-active', reported: 'text-saving' } as const;
 const years = (y: number | null) => (y === null ? 'not paid back' : `${y.toFixed(1)} yr`);
@@ -66,25 +67,7 @@ export function PortfolioTable({ rows, actions }: { rows: PortfolioRow[]; action
       </div>
       <div className="overflow-x-auto rounded border border-rule">
         <table className="ledger text-sm">
-          <thead>
-            {table.getHeaderGroups().map((hg) => (
-              <tr key={hg.id}>
-                {hg.headers.map((h) => {
-                  const num = (h.column.columnDef.meta as { num?: boolean } | undefined)?.num;
-                  const sorted = h.column.getIsSorted();
-                  return (
-                    <th key={h.id} scope="col" className={num ? 'text-right' : ''} aria-sort={sorted === 'asc' ? 'ascending' : sorted === 'desc' ? 'descending' : undefined}>
-                      {h.column.getCanSort() ? (
-                        <button className="inline-flex items-center gap-1 font-medium" onClick={h.column.getToggleSortingHandler()}>
-                          {flexRender(h.column.columnDef.header, h.getContext())}<span aria-hidden="true">{sorted === 'asc' ? '▲' : sorted === 'desc' ? '▼' : '↕'}</span>
-                        </button>
-                      ) : flexRender(h.column.columnDef.header, h.getContext())}
-                    </th>
-                  );
-                })}
-              </tr>
-            ))}
-          </thead>
+          <SortableHead table={table} />
           <tbody>
             {table.getRowModel().rows.map((row) => (
               <tr key={row.id}>

@@ -5,6 +5,7 @@ import { flexRender, getCoreRowModel, getSortedRowModel, useReactTable, type Col
 import { api } from '../api';
 import { money, num, pct, pf } from '@/lib/format';
 import { planTypeLabel, years, type SizingResult } from './types';
+import { SortableHead } from '../table/SortableHead';
 
 type Row = SizingResult['rows'][number];
 export type SizingChoice = { row: Row; assumptions: SizingResult['assumptions']; targetPf: number };
@@ -88,23 +89,7 @@ export function SizingTable({ siteId, currency, onUse }: { siteId: string; curre
           {data.notes.map((n) => <p key={n} className="text-sm text-muted">{n}</p>)}
           <div className="max-h-[28rem] overflow-auto rounded border border-rule">
             <table className="ledger text-sm" aria-label="Sizing candidates">
-              <thead>
-                {table.getHeaderGroups().map((hg) => (
-                  <tr key={hg.id}>
-                    {hg.headers.map((h) => {
-                      const isNum = (h.column.columnDef.meta as { num?: boolean } | undefined)?.num;
-                      const sorted = h.column.getIsSorted();
-                      return (
-                        <th key={h.id} scope="col" className={isNum ? 'text-right' : ''} aria-sort={sorted === 'asc' ? 'ascending' : sorted === 'desc' ? 'descending' : undefined}>
-                          {h.column.getCanSort() ? (
-                            <button type="button" className="font-medium" onClick={h.column.getToggleSortingHandler()}>{flexRender(h.column.columnDef.header, h.getContext())}{sorted === 'asc' ? ' ▲' : sorted === 'desc' ? ' ▼' : ''}</button>
-                          ) : flexRender(h.column.columnDef.header, h.getContext())}
-                        </th>
-                      );
-                    })}
-                  </tr>
-                ))}
-              </thead>
+              <SortableHead table={table} />
               <tbody>
                 {table.getRowModel().rows.map((r) => (
                   <tr key={r.id} data-best-npv={r.original.bestNpv || undefined} data-shortest-payback={r.original.shortestPayback || undefined}>

@@ -6,6 +6,7 @@ import { QueryRoot } from '../QueryRoot';
 import { api } from '../api';
 import { money, num, pct } from '@/lib/format';
 import type { PaybackRow, PaybackTable as Table } from '@/lib/payback/table';
+import { SortableHead } from '../table/SortableHead';
 
 const yearsCell = (y: number | null) => (y === null ? <span className="text-cost">not paid back</span> : <>{y.toFixed(1)}<span className="unit">years</span></>);
 const sortYears = (y: number | null) => y ?? Number.POSITIVE_INFINITY;
@@ -45,21 +46,7 @@ function View() {
       </div>
       <div className="overflow-x-auto rounded border border-rule">
         <table className="ledger text-sm" aria-label="Payback of saved plans">
-          <thead>
-            {table.getHeaderGroups().map((hg) => (
-              <tr key={hg.id}>
-                {hg.headers.map((h) => {
-                  const isNum = (h.column.columnDef.meta as { num?: boolean } | undefined)?.num;
-                  const sorted = h.column.getIsSorted();
-                  return (
-                    <th key={h.id} scope="col" className={isNum ? 'text-right' : ''} aria-sort={sorted === 'asc' ? 'ascending' : sorted === 'desc' ? 'descending' : undefined}>
-                      <button type="button" className="font-medium" onClick={h.column.getToggleSortingHandler()}>{flexRender(h.column.columnDef.header, h.getContext())}{sorted === 'asc' ? ' ▲' : sorted === 'desc' ? ' ▼' : ''}</button>
-                    </th>
-                  );
-                })}
-              </tr>
-            ))}
-          </thead>
+          <SortableHead table={table} />
           <tbody>
             {table.getRowModel().rows.map((r) => (
               <tr key={r.id}>

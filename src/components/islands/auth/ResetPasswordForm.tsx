@@ -1,4 +1,5 @@
 import { useState, type FormEvent } from 'react';
+import { useHydrated } from '../useHydrated';
 import { authClient } from '@/lib/auth/auth-client';
 import { ResetRequestSchema, ResetSchema } from '@/lib/schemas/auth';
 import { Field } from '../Field';
@@ -8,6 +9,7 @@ import { fieldErrors } from '../api';
 export default function ResetPasswordForm({ token, tokenError }: { token?: string; tokenError?: string }) {
   const [errors, setErrors] = useState<Record<string, string>>(tokenError ? { form: 'This reset link is invalid or has expired. Ask for a new one below.' } : {});
   const [busy, setBusy] = useState(false);
+  const hydrated = useHydrated();
   const [done, setDone] = useState<string | null>(null);
 
   async function request(e: FormEvent<HTMLFormElement>) {
@@ -43,19 +45,19 @@ export default function ResetPasswordForm({ token, tokenError }: { token?: strin
 
   if (token && !tokenError)
     return (
-      <form onSubmit={reset} noValidate className="flex flex-col gap-3">
+      <form method="post" onSubmit={reset} noValidate className="flex flex-col gap-3">
         <Field label="New password" name="password" type="password" autoComplete="new-password" error={errors.password} hint="At least 10 characters." required />
         <Field label="New password again" name="confirm" type="password" autoComplete="new-password" error={errors.confirm} required />
         {errors.form && <p className="notice notice-error" role="alert">{errors.form}</p>}
-        <button className="btn btn-primary self-start" disabled={busy}>Set new password</button>
+        <button className="btn btn-primary self-start" disabled={busy || !hydrated}>Set new password</button>
       </form>
     );
 
   return (
-    <form onSubmit={request} noValidate className="flex flex-col gap-3">
+    <form method="post" onSubmit={request} noValidate className="flex flex-col gap-3">
       {errors.form && <p className="notice notice-error" role="alert">{errors.form}</p>}
       <Field label="E-mail of your account" name="email" type="email" autoComplete="email" error={errors.email} required />
-      <button className="btn btn-primary self-start" disabled={busy}>Send reset link</button>
+      <button className="btn btn-primary self-start" disabled={busy || !hydrated}>Send reset link</button>
     </form>
   );
 }

@@ -1,4 +1,5 @@
 import { useState, type FormEvent } from 'react';
+import { useHydrated } from '../useHydrated';
 import { authClient } from '@/lib/auth/auth-client';
 import { SignInSchema } from '@/lib/schemas/auth';
 import { Field } from '../Field';
@@ -12,6 +13,7 @@ export function safeNext(next: string | undefined): string {
 export default function SignInForm({ next }: { next?: string }) {
   const [errors, setErrors] = useState<Record<string, string>>({});
   const [busy, setBusy] = useState(false);
+  const hydrated = useHydrated();
 
   async function submit(e: FormEvent<HTMLFormElement>) {
     e.preventDefault();
@@ -30,11 +32,11 @@ export default function SignInForm({ next }: { next?: string }) {
   }
 
   return (
-    <form onSubmit={submit} noValidate className="flex flex-col gap-3">
+    <form method="post" onSubmit={submit} noValidate className="flex flex-col gap-3">
       <Field label="E-mail" name="email" type="email" autoComplete="email" error={errors.email} required />
       <Field label="Password" name="password" type="password" autoComplete="current-password" error={errors.password} required />
       {errors.form && <p className="notice notice-error" role="alert">{errors.form}</p>}
-      <button className="btn btn-primary self-start" disabled={busy}>{busy ? 'Signing in…' : 'Sign in'}</button>
+      <button className="btn btn-primary self-start" disabled={busy || !hydrated}>{busy ? 'Signing in…' : 'Sign in'}</button>
     </form>
   );
 }

@@ -1,4 +1,5 @@
 import { useState, type FormEvent } from 'react';
+import { useHydrated } from '../useHydrated';
 import { authClient } from '@/lib/auth/auth-client';
 import { SignUpSchema } from '@/lib/schemas/auth';
 import { Field } from '../Field';
@@ -7,6 +8,7 @@ import { fieldErrors } from '../api';
 export default function SignUpForm({ next }: { next?: string }) {
   const [errors, setErrors] = useState<Record<string, string>>({});
   const [busy, setBusy] = useState(false);
+  const hydrated = useHydrated();
   const [sentTo, setSentTo] = useState<string | null>(null);
 
   async function submit(e: FormEvent<HTMLFormElement>) {
@@ -31,12 +33,12 @@ export default function SignUpForm({ next }: { next?: string }) {
     );
 
   return (
-    <form onSubmit={submit} noValidate className="flex flex-col gap-3">
+    <form method="post" onSubmit={submit} noValidate className="flex flex-col gap-3">
       <Field label="Your name" name="name" autoComplete="name" error={errors.name} required />
       <Field label="Work e-mail" name="email" type="email" autoComplete="email" error={errors.email} required />
       <Field label="Password" name="password" type="password" autoComplete="new-password" error={errors.password} hint="At least 10 characters." required />
       {errors.form && <p className="notice notice-error" role="alert">{errors.form}</p>}
-      <button className="btn btn-primary self-start" disabled={busy}>{busy ? 'Creating account…' : 'Create account'}</button>
+      <button className="btn btn-primary self-start" disabled={busy || !hydrated}>{busy ? 'Creating account…' : 'Create account'}</button>
     </form>
   );
 }

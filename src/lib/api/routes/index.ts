@@ -9,5 +9,6 @@ import { REPORT_ROUTES } from './reports';
 import { CORRECTION_ROUTES } from './correction';
 import { TARIFF_EDITOR_ROUTES } from './tariff-editor';
 import { PURCHASE_ROUTES } from './purchases';
+import { ACTIVITY_ROUTES } from './activity';
 
-export const AREA_ROUTES: RouteDoc[] = [...PORTFOLIO_ROUTES, ...FINDINGS_VIEW_ROUTES, ...REPORT_ROUTES, ...CORRECTION_ROUTES, ...TARIFF_EDITOR_ROUTES, ...PURCHASE_ROUTES];
+export const AREA_ROUTES: RouteDoc[] = [...PORTFOLIO_ROUTES, ...FINDINGS_VIEW_ROUTES, ...REPORT_ROUTES, ...CORRECTION_ROUTES, ...TARIFF_EDITOR_ROUTES, ...PURCHASE_ROUTES, ...ACTIVITY_ROUTES];

@@ -31,6 +31,8 @@ const SECURITY_HEADERS: Record<string, string> = {
     "base-uri 'self'",
     "object-src 'none'",
   ].join('; '),
+  // Browsers only honour HSTS over https; sent when the public URL is https (a year, subdomains too).
+  ...(cfg.baseUrl.startsWith('https://') ? { 'strict-transport-security': 'max-age=31536000; includeSubDomains' } : {}),
 };
 
 /** A state-changing request must come from our own pages (or a non-browser client sending no cookie). */
@@ -55,7 +57,9 @@ export const onRequest = defineMiddleware(async (context, next) => {
 
   const { request } = context;
   const path = context.url.pathname;
-  if (!SAFE.has(request.method) && !path.startsWith('/api/auth/') && !originAllowed(request)) {
+  // better-auth checks its own routes too; a sign-in posted from another site's page (login CSRF) is refused here first.
+  const foreignAuthPost = path.startsWith('/api/auth/') && !!request.headers.get('origin') && request.headers.get('origin') !== cfg.baseUrl;
+  if (!SAFE.has(request.method) && (foreignAuthPost || (!path.startsWith('/api/auth/') && !originAllowed(request)))) {
     return errorResponse(new ApiError(403, 'bad_origin', 'This request did not come from a Varledger page. Reload the page and try again.'));
   }
 

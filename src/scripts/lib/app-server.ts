@@ -1,4 +1,4 @@
-/** Starts the built standalone server (dist/server/entry.mjs) as a child process and waits for it. */
+/** Starts the built app (dist/server/entry.mjs, through src/scripts/serve.mjs) as a child process and waits for it. */
 import { spawn, type ChildProcess } from 'node:child_process';
 import { existsSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
@@ -6,6 +6,8 @@ import { fileURLToPath } from 'node:url';
 export const ROOT = fileURLToPath(new URL('../../../', import.meta.url));
 /** The built server; VARLEDGER_DIST (see astro.config.mjs) moves it for parallel local runs. */
 export const ENTRY = `${ROOT}${(process.env.VARLEDGER_DIST ?? 'dist').replace(/^\.\//, '').replace(/\/$/, '')}/server/entry.mjs`;
+/** Our launcher around the built handler (it fixes the client address; see serve.mjs). */
+export const LAUNCHER = `${ROOT}src/scripts/serve.mjs`;
 
 export type AppServer = { url: string; child: ChildProcess; stop: () => Promise<void> };
 
@@ -13,7 +15,7 @@ export async function startAppServer(env: Record<string, string>, opts: { quiet?
   if (!existsSync(ENTRY)) throw new Error('The app is not built: run `npm run build` first (npm start and npm test do it for you).');
   const host = env.HOST ?? '127.0.0.1';
   const port = env.PORT ?? '4321';
-  const child = spawn(process.execPath, [ENTRY], { cwd: ROOT, env: { ...process.env, ...env }, stdio: opts.quiet ? ['ignore', 'ignore', 'pipe'] : 'inherit' });
+  const child = spawn(process.execPath, [LAUNCHER], { cwd: ROOT, env: { ...process.env, ...env }, stdio: opts.quiet ? ['ignore', 'ignore', 'pipe'] : 'inherit' });
   let stderr = '';
   child.stderr?.on('data', (d) => (stderr = (stderr + d).slice(-4000)));
   const url = `http://${host}:${port}`;

@@ -4,7 +4,7 @@ import node from '@astrojs/node';
 import react from '@astrojs/react';
 import tailwindcss from '@tailwindcss/vite';
 
-// Server-rendered app on the Node adapter in standalone mode: `node dist/server/entry.mjs`
+// Server-rendered app on the Node adapter in standalone mode, served by `node src/scripts/serve.mjs` (it fixes the client address first)
 // honours HOST and PORT. Origin checks on state-changing requests are done by our own
 // middleware against the configured APP_URL (see DEVELOPERS.md, Decisions), because Astro's
 // built-in check is fixed at build time and the deployment's host is only known at run time.

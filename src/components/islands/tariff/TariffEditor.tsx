@@ -10,6 +10,7 @@ import { useMutation } from '@tanstack/react-query';
 import type { z } from 'zod';
 import { api, ApiClientError } from '../api';
 import { TariffVersionSchema } from '@/lib/schemas/tariff';
+import { tariffSchema } from '@/lib/domain/tariff/tariff-schema';
 import { EditorCtx } from './form-context';
 import { SchemaField } from './schema-fields';
 import { unwrap } from './schema-walk';
@@ -21,11 +22,9 @@ import { usePreview } from './usePreview';
 type Input = z.input<typeof TariffVersionSchema>;
 type Output = z.output<typeof TariffVersionSchema>;
 
-// The version schema is the engine's tariff intersected with a required start date.
-// eslint-disable-next-line @typescript-eslint/no-explicit-any
-const parts = (TariffVersionSchema as any)._zod.def;
-const TARIFF_SHAPE = parts.left._zod.def.shape as Record<string, z.ZodType>;
-const START_DATE = parts.right._zod.def.shape.effectiveFrom as z.ZodType;
+// The version schema is the engine's tariff with the start date made required.
+const TARIFF_SHAPE = tariffSchema.shape as Record<string, z.ZodType>;
+const START_DATE = TariffVersionSchema.shape.effectiveFrom as z.ZodType;
 
 export type EditTarget = { id: string | null; title: string; values: Input; compareTo: string | null };
 

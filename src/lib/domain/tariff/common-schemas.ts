@@ -18,27 +18,34 @@ export type RoundingMode = z.infer<typeof roundingModeSchema>;
 
 /** How the measured PF is rounded before it is compared (tariffs print 2 or 3 decimals). */
 export const pfRoundingSchema = z
-  .object({
+  .strictObject({
     decimals: z.number().int().min(1).max(6).describe('Decimals the PF is rounded to before comparison.'),
     mode: roundingModeSchema,
   })
   .describe('Rounding of the measured PF before it is compared with the target.');
 export type PfRounding = z.infer<typeof pfRoundingSchema>;
 
+// Bounds carry zod's own messages: the tariff editor turns those into its short field texts.
 const pfValue = z.number().gt(0).max(1);
+
+/** Largest price per unit the schemas accept: far above any tariff, so only a unit slip is refused. */
+export const RATE_MAX = 1_000_000;
+
+/** A price per unit (kW, kVA, kvar, kWh or kvarh) in the tariff currency. */
+export const priceSchema = () => z.number().min(0).max(RATE_MAX);
 
 /** Reactive allowance, as a PF (k = tan(acos(pf))) or as kvar per kW directly. */
 export const allowanceSchema = z
   .discriminatedUnion('basis', [
-    z.object({ basis: z.literal('pf'), pf: pfValue.describe('PF at which reactive use is free; k = tan(acos(pf)).') }),
-    z.object({ basis: z.literal('ratio'), kvarPerKw: z.number().min(0).max(10).describe('Free kvar per kW (or kvarh per kWh), e.g. 0.3333.') }),
+    z.strictObject({ basis: z.literal('pf'), pf: pfValue.describe('PF at which reactive use is free; k = tan(acos(pf)).') }),
+    z.strictObject({ basis: z.literal('ratio'), kvarPerKw: z.number().min(0).max(10).describe('Free kvar per kW (or kvarh per kWh), e.g. 0.3333.') }),
   ])
   .describe('Reactive allowance before a charge applies.');
 export type Allowance = z.infer<typeof allowanceSchema>;
 
 /** Demand ratchet: billed = max(this period, fraction x highest of the previous N). */
 export const ratchetSchema = z
-  .object({
+  .strictObject({
     fraction: z.number().gt(0).max(1).describe('Share of the highest earlier billed demand that sets a floor, e.g. 0.8.'),
     lookbackPeriods: z.number().int().min(1).max(36).default(11).describe('How many earlier periods the ratchet looks back over.'),
     basis: z

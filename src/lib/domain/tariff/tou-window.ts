@@ -7,7 +7,7 @@ const clockTime = z
 
 /** One daily time range; `from` later than `to` wraps past midnight (22:00 to 06:00). */
 export const timeRangeSchema = z
-  .object({
+  .strictObject({
     from: clockTime.describe('Start of the range, local time, inclusive.'),
     to: clockTime.describe('End of the range, local time, exclusive. Earlier than `from` means the range runs past midnight.'),
   })
@@ -18,7 +18,7 @@ export const timeRangeSchema = z
  * does not restrict. An interval is judged by the local date and time of its start.
  */
 export const touWindowSchema = z
-  .object({
+  .strictObject({
     name: z.string().max(80).optional().describe('Name shown in explanations, e.g. "Winter peak".'),
     weekdays: z.array(z.number().int().min(1).max(7)).min(1).optional().describe('ISO weekdays, 1 = Monday ... 7 = Sunday, of the interval\'s own local date.'),
     months: z.array(z.number().int().min(1).max(12)).min(1).optional().describe('Calendar months 1..12.'),

@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import { apparentKva, powerFactor } from '../../power/quantities';
-import { allowanceSchema, ratchetSchema, ruleBaseShape } from '../common-schemas';
+import { allowanceSchema, ratchetSchema, ruleBaseShape, priceSchema } from '../common-schemas';
 import { money, num, pfText, rate } from '../format';
 import { allowanceK, allowanceText } from '../allowance';
 import { ratchetFloor, type RuleInput, type RuleOutcome } from '../rule-contract';
@@ -9,7 +9,7 @@ export const EXCESS_KVAR_DEMAND = 'excess-kvar-demand';
 
 /** Clause shape 3: charge per kvar of demand above k x kW. */
 export const excessKvarDemandRuleSchema = z
-  .object({
+  .strictObject({
     type: z.literal(EXCESS_KVAR_DEMAND),
     ...ruleBaseShape,
     allowance: allowanceSchema,
@@ -17,7 +17,7 @@ export const excessKvarDemandRuleSchema = z
       .enum(['coincident', 'period-max'])
       .default('coincident')
       .describe('coincident: kvar of the same demand reading as the kW peak; period-max: the period\'s highest kvar, whenever it occurred.'),
-    ratePerKvar: z.number().min(0).describe('Charge per billable kvar for the period.'),
+    ratePerKvar: priceSchema().describe('Charge per billable kvar for the period.'),
     ratchet: ratchetSchema.optional().describe('Billable kvar is at least this share of the highest billable kvar of earlier periods.'),
   })
   .describe('Excess reactive demand');

@@ -1,7 +1,7 @@
 import { z } from 'zod';
 import { averagePf } from '../../power/quantities';
 import { allowanceK, allowanceText } from '../allowance';
-import { allowanceSchema, kvarhBasisSchema, ruleBaseShape } from '../common-schemas';
+import { allowanceSchema, kvarhBasisSchema, ruleBaseShape, priceSchema } from '../common-schemas';
 import { money, num, rate } from '../format';
 import { isBelow, kvarhOnBasis } from '../pf-basis';
 import type { RuleInput, RuleOutcome } from '../rule-contract';
@@ -9,23 +9,23 @@ import type { RuleInput, RuleOutcome } from '../rule-contract';
 export const EXCESS_KVARH = 'excess-kvarh';
 
 const bandSchema = z
-  .object({
+  .strictObject({
     pfBelow: z.number().gt(0).max(1).describe('The band applies when the average PF is below this value.'),
-    ratePerKvarh: z.number().min(0).describe('Price per billable kvarh in this band.'),
+    ratePerKvarh: priceSchema().describe('Price per billable kvarh in this band.'),
   })
   .describe('PF band price.');
 
 /** Clause shape 4: charge per kvarh above k x kWh, flat or priced by PF band. */
 export const excessKvarhRuleSchema = z
-  .object({
+  .strictObject({
     type: z.literal(EXCESS_KVARH),
     ...ruleBaseShape,
     allowance: allowanceSchema,
     kvarhBasis: kvarhBasisSchema.default('lagging'),
     pricing: z
       .discriminatedUnion('kind', [
-        z.object({ kind: z.literal('flat'), ratePerKvarh: z.number().min(0).describe('Price per billable kvarh.') }),
-        z.object({
+        z.strictObject({ kind: z.literal('flat'), ratePerKvarh: priceSchema().describe('Price per billable kvarh.') }),
+        z.strictObject({
           kind: z.literal('pf-bands'),
           bands: z.array(bandSchema).min(1).describe('Bands by average PF; the lowest band whose limit the PF is below sets the price.'),
         }),

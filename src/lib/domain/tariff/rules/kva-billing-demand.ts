@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import { averagePf } from '../../power/quantities';
-import { kvarhBasisSchema, pfTarget, ratchetSchema, ruleBaseShape } from '../common-schemas';
+import { kvarhBasisSchema, pfTarget, ratchetSchema, ruleBaseShape, priceSchema } from '../common-schemas';
 import { money, num, rate } from '../format';
 import { kvarhOnBasis } from '../pf-basis';
 import { ratchetFloor, type RuleInput, type RuleOutcome } from '../rule-contract';
@@ -10,7 +10,7 @@ export const KVA_BILLING_DEMAND = 'kva-billing-demand';
 
 /** Clause shape 2: demand billed in kVA, or kW raised to a share of kVA. */
 export const kvaBillingDemandRuleSchema = z
-  .object({
+  .strictObject({
     type: z.literal(KVA_BILLING_DEMAND),
     ...ruleBaseShape,
     mode: z
@@ -23,7 +23,7 @@ export const kvaBillingDemandRuleSchema = z
       .default('unity')
       .describe('The PF-related cost is the bill at actual kVA minus the bill at unity PF or at the target PF.'),
     targetPf: pfTarget.optional().describe('Target PF when the reference is target-pf.'),
-    demandRate: z.number().min(0).describe('Charge per billed unit (kVA, or kW in the greater-of mode) for the period.'),
+    demandRate: priceSchema().describe('Charge per billed unit (kVA, or kW in the greater-of mode) for the period.'),
     ratchet: ratchetSchema.optional(),
   })
   .describe('kVA billing demand');

@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { ruleBaseShape } from '../common-schemas';
+import { ruleBaseShape, priceSchema } from '../common-schemas';
 import { money, num, rate } from '../format';
 import type { RuleInput, RuleOutcome } from '../rule-contract';
 
@@ -11,10 +11,10 @@ export const LEADING_KVARH = 'leading-kvarh';
  * "counted like lagging" forms are the `kvarhBasis` choice of the PF-based rules.
  */
 export const leadingKvarhRuleSchema = z
-  .object({
+  .strictObject({
     type: z.literal(LEADING_KVARH),
     ...ruleBaseShape,
-    ratePerKvarh: z.number().min(0).describe('Price per leading kvarh.'),
+    ratePerKvarh: priceSchema().describe('Price per leading kvarh.'),
     condition: z
       .enum(['any-load', 'zero-kw-only'])
       .default('any-load')

@@ -7,6 +7,7 @@ import {
   ratchetSchema,
   roundingModeSchema,
   ruleBaseShape,
+  priceSchema,
 } from '../common-schemas';
 import { money, num, pct, rate } from '../format';
 import { isBelow, roundSteps, roundTo, rulePf } from '../pf-basis';
@@ -16,7 +17,7 @@ export const PF_BILLING_DEMAND = 'pf-billing-demand';
 
 /** Clause shape 1: billing demand raised when PF is below a target. */
 export const pfBillingDemandRuleSchema = z
-  .object({
+  .strictObject({
     type: z.literal(PF_BILLING_DEMAND),
     ...ruleBaseShape,
     targetPf: pfTarget.describe('PF below which billing demand is raised, e.g. 0.90.'),
@@ -30,7 +31,7 @@ export const pfBillingDemandRuleSchema = z
     percentPerPoint: z.number().positive().max(10).default(1).describe('Per-point formula: percent added per PF point (0.01) below target.'),
     pointRounding: z.union([roundingModeSchema, z.literal('exact')]).default('up').describe('Per-point formula: rounding of the points below target.'),
     maxIncreasePct: z.number().min(0).max(1000).optional().describe('Cap on the increase, percent of measured demand (e.g. 10).'),
-    demandRatePerKw: z.number().min(0).describe('Demand charge per kW of billing demand for the period.'),
+    demandRatePerKw: priceSchema().describe('Demand charge per kW of billing demand for the period.'),
     demandDecimals: z.number().int().min(0).max(4).optional().describe('Decimals kW figures are rounded to before pricing, when the bill does so.'),
     ratchet: ratchetSchema
       .extend({

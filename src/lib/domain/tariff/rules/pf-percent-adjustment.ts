@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { kvarhBasisSchema, pfBasisSchema, pfRoundingSchema, pfTarget, roundingModeSchema, ruleBaseShape } from '../common-schemas';
+import { kvarhBasisSchema, pfBasisSchema, pfRoundingSchema, pfTarget, roundingModeSchema, ruleBaseShape, priceSchema } from '../common-schemas';
 import { money, num, pct, rate } from '../format';
 import { isBelow, PF_EPSILON, roundSteps, rulePf } from '../pf-basis';
 import type { RuleInput, RuleOutcome } from '../rule-contract';
@@ -9,7 +9,7 @@ export const PF_PERCENT_ADJUSTMENT = 'pf-percent-adjustment';
 const stepRounding = z.union([roundingModeSchema, z.literal('exact')]);
 
 const tierSchema = z
-  .object({
+  .strictObject({
     downToPf: z.number().min(0).max(1).optional().describe('Lower end of the tier; absent means no lower end.'),
     pctPerStep: z.number().min(0).max(100).describe('Percent of the base added per step within this tier.'),
   })
@@ -17,9 +17,9 @@ const tierSchema = z
 
 const baseSchema = z
   .discriminatedUnion('source', [
-    z.object({ source: z.literal('energy-rate'), ratePerKwh: z.number().min(0).describe('Energy price per kWh; base = kWh x price.') }),
-    z.object({ source: z.literal('demand-rate'), ratePerKw: z.number().min(0).describe('Demand price per kW; base = peak kW x price.') }),
-    z.object({
+    z.strictObject({ source: z.literal('energy-rate'), ratePerKwh: priceSchema().describe('Energy price per kWh; base = kWh x price.') }),
+    z.strictObject({ source: z.literal('demand-rate'), ratePerKw: priceSchema().describe('Demand price per kW; base = peak kW x price.') }),
+    z.strictObject({
       source: z.literal('entered-amount'),
       field: z.enum(['energyCharge', 'demandCharge', 'totalBill']).describe('Which amount from the bill is the base.'),
     }),
@@ -28,7 +28,7 @@ const baseSchema = z
 
 /** Clause shape 5: percent surcharge per PF step below a threshold, tiers, optional credit. */
 export const pfPercentAdjustmentRuleSchema = z
-  .object({
+  .strictObject({
     type: z.literal(PF_PERCENT_ADJUSTMENT),
     ...ruleBaseShape,
     base: baseSchema,
@@ -40,7 +40,7 @@ export const pfPercentAdjustmentRuleSchema = z
     stepRounding: stepRounding.default('up').describe('Rounding of the number of steps below the threshold (exact counts part steps).'),
     tiers: z.array(tierSchema).min(1).describe('Surcharge tiers in order from the threshold down.'),
     credit: z
-      .object({
+      .strictObject({
         abovePf: pfTarget.describe('PF above which a credit is earned.'),
         pctPerStep: z.number().min(0).max(100).describe('Percent of the base credited per step above.'),
         maxPct: z.number().min(0).max(100).describe('Cap on the credit, percent of the base.'),

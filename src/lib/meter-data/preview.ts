@@ -8,6 +8,7 @@ import { proposeMapping } from '../import/propose/propose-mapping';
 import { parseMeterCsv } from '../import/parse-meter-csv';
 import { MeterMappingSchema } from '../import/mapping-schema';
 import { buildSeries } from '../domain/series/build-series';
+import { fromZod } from '../api/errors';
 
 export const PREVIEW_HEAD_MAX = 256 * 1024;
 
@@ -15,7 +16,10 @@ export const PreviewRequestSchema = z
   .strictObject({
     head: z.string().min(1, 'Send the first part of the file as text.').max(PREVIEW_HEAD_MAX, `Send at most the first ${PREVIEW_HEAD_MAX / 1024} KB of the file.`),
     truncated: z.boolean().default(true).meta({ description: 'Whether head was cut from a longer file (its last line is then ignored)' }),
-    mapping: z.unknown().optional().meta({ description: 'A mapping to read the rows with; without it a mapping is proposed' }),
+    mapping: z
+      .record(z.string(), z.unknown(), { error: 'Send the mapping as a JSON object (a MeterMapping).' })
+      .optional()
+      .meta({ description: 'A mapping to read the rows with (checked against MeterMapping, its problems listed in parsed.problems); without it a mapping is proposed' }),
     dateOrder: z.enum(['ymd', 'dmy', 'mdy']).optional(),
   })
   .meta({ id: 'MeterPreviewRequest' });
@@ -34,7 +38,11 @@ export async function previewMeterFile(req: z.infer<typeof PreviewRequestSchema>
   const mappingInput = req.mapping ?? proposal.mapping;
   if (!mappingInput) return { proposal, parsed: null };
   const m = MeterMappingSchema.safeParse(mappingInput);
-  if (!m.success) return { proposal, parsed: { rows: [] as PreviewRow[], problems: m.error.issues.map((i) => ({ row: null, column: i.path.join('.'), value: null, code: 'mapping-invalid', message: i.message })), totalProblems: m.error.issues.length } };
+  if (!m.success) {
+    // One problem per field path, unknown fields named by their own path (as in a 400's `fields`).
+    const problems = Object.entries(fromZod(m.error, '').fields ?? {}).map(([column, message]) => ({ row: null, column, value: null, code: 'mapping-invalid', message }));
+    return { proposal, parsed: { rows: [] as PreviewRow[], problems, totalProblems: problems.length } };
+  }
   const parsed = await parseMeterCsv([wholeLines(req.head, req.truncated)], m.data, { siteTimeZone: zone });
   if (!parsed.ok) return { proposal, parsed: { rows: [] as PreviewRow[], problems: parsed.problems.slice(0, 20), totalProblems: parsed.totalProblems } };
   const out: PreviewRow[] = [];

@@ -1,5 +1,6 @@
 /** Response schema of the findings endpoint, with field names and units, for the OpenAPI document. */
 import { z } from 'zod';
+import { isCalendarDate } from '../domain/tariff/tariff-schema';
 
 const n = (d: string) => z.number().meta({ description: d });
 const nn = (d: string) => z.number().nullable().meta({ description: d });
@@ -87,7 +88,10 @@ export const FindingsSchema = z
   })
   .meta({ id: 'Findings' });
 
-const isoDate = z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'Use a date like 2026-01-31.');
+const isoDate = z
+  .string()
+  .regex(/^\d{4}-\d{2}-\d{2}$/, 'Use a date like 2026-01-31.')
+  .refine(isCalendarDate, 'This is not a real calendar date.');
 export const FindingsQuerySchema = z.strictObject({
   from: isoDate.optional().meta({ description: 'First local date to include' }),
   to: isoDate.optional().meta({ description: 'Last local date to include' }),

@@ -13,17 +13,28 @@ const isoDate = z
     return !Number.isNaN(d.getTime()) && d.toISOString().slice(0, 10) === s;
   }, 'This is not a real calendar date.');
 
+/** Bounds far above any real bill, so that only a unit or typing slip is refused. */
+const ENERGY_MAX = 1e10;
+const DEMAND_MAX = 1e7;
+const AMOUNT_MAX = 1e10;
+const amount = (what: string) =>
+  z
+    .number()
+    .finite()
+    .min(-AMOUNT_MAX, `${what} below -${AMOUNT_MAX.toLocaleString('en-US')} is not plausible; check the unit.`)
+    .max(AMOUNT_MAX, `${what} above ${AMOUNT_MAX.toLocaleString('en-US')} is not plausible; check the unit.`);
+
 export const BillDeterminantsSchema = z
   .strictObject({
     periodStart: isoDate.describe('First day of the billing period (ISO 8601 date).'),
     periodEnd: isoDate.describe('Last day of the billing period, inclusive (ISO 8601 date); after the start.'),
-    kwh: z.number().finite().nonnegative('kWh cannot be negative.').describe('Billed active energy for the period, kWh.'),
-    billedDemand: z.number().finite().nonnegative('Billed demand cannot be negative.').optional().describe('Billed (billing) demand as printed, in `billedDemandUnit`.'),
+    kwh: z.number().finite().nonnegative('kWh cannot be negative.').max(ENERGY_MAX, `Above ${ENERGY_MAX.toLocaleString('en-US')} kWh in one bill is not plausible; check the unit.`).describe('Billed active energy for the period, kWh.'),
+    billedDemand: z.number().finite().nonnegative('Billed demand cannot be negative.').max(DEMAND_MAX, `Above ${DEMAND_MAX.toLocaleString('en-US')} of billed demand is not plausible; check the unit.`).optional().describe('Billed (billing) demand as printed, in `billedDemandUnit`.'),
     billedDemandUnit: z.enum(['kW', 'kVA']).optional().describe('Whether the billed demand is kW or kVA; required with `billedDemand`.'),
-    kvarh: z.number().finite().nonnegative('kvarh cannot be negative.').optional().describe('Billed reactive energy for the period, kvarh, when printed.'),
+    kvarh: z.number().finite().nonnegative('kvarh cannot be negative.').max(ENERGY_MAX, `Above ${ENERGY_MAX.toLocaleString('en-US')} kvarh in one bill is not plausible; check the unit.`).optional().describe('Billed reactive energy for the period, kvarh, when printed.'),
     powerFactor: z.number().finite().gt(0, 'PF must be above 0.').max(1, 'PF must be at most 1 (a fraction such as 0.87).').optional().describe('Power factor as printed, as a fraction between 0 and 1.'),
-    pfCharge: z.number().finite().optional().describe('Charge (positive) or credit (negative) the bill attributes to power factor, in `currency`.'),
-    total: z.number().finite().optional().describe('Bill total, in `currency`.'),
+    pfCharge: amount('PF charge').optional().describe('Charge (positive) or credit (negative) the bill attributes to power factor, in `currency`.'),
+    total: amount('Bill total').optional().describe('Bill total, in `currency`.'),
     currency: z
       .string()
       .regex(/^[A-Z]{3}$/, 'Use a three-letter ISO 4217 code such as USD.')

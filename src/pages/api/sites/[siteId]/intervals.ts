@@ -7,6 +7,11 @@ import { getDb } from '@/lib/db/client';
 import { listMeters, readSeries } from '@/lib/db/intervals';
 import { monthlyPeriods, spanOf } from '@/lib/domain/periods/monthly-periods';
 import { IntervalViewsQuery, intervalViews } from '@/lib/findings/interval-views';
+import { isCalendarDate } from '@/lib/domain/tariff/tariff-schema';
+
+// A date that matches YYYY-MM-DD but names no day (2025-02-30) would reach the database as NaN.
+const realDate = IntervalViewsQuery.shape.from.unwrap().refine(isCalendarDate, 'This is not a real calendar date.').optional();
+const Query = IntervalViewsQuery.safeExtend({ from: realDate, to: realDate });
 
 export const prerender = false;
 
@@ -14,7 +19,7 @@ export const prerender = false;
 export const GET = endpoint(async (ctx) => {
   const { workspace } = requirePermission(ctx, 'site:view');
   const site = await siteInWorkspace(ctx.params, workspace.id);
-  const q = readParams(Object.fromEntries(ctx.url.searchParams), IntervalViewsQuery);
+  const q = readParams(Object.fromEntries(ctx.url.searchParams), Query);
   const db = getDb();
   const m = (await listMeters(db, workspace.id, site.id))[0];
   if (!m) return json({ intervalMinutes: null, intervals: 0, sampled: 0, cloud: [], exportPoints: 0, duration: [] });

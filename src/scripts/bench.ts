@@ -6,7 +6,7 @@ import { spawnSync } from 'node:child_process';
 import { existsSync } from 'node:fs';
 import { ROOT } from './lib/app-server';
 
-const BENCHES = ['src/scripts/bench-engine.ts', 'src/scripts/bench-import.ts', 'src/scripts/bench-import-http.ts', 'src/scripts/bench-bundle.ts'];
+const BENCHES = ['src/scripts/bench-engine.ts', 'src/scripts/bench-import.ts', 'src/scripts/bench-import-http.ts', 'src/scripts/bench-load.ts', 'src/scripts/bench-bundle.ts'];
 let failed = 0;
 for (const b of BENCHES) {
   if (!existsSync(`${ROOT}${b}`)) {

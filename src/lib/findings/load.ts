@@ -1,4 +1,9 @@
-/** Loads a site's findings inputs from the database and runs the computation. */
+/**
+ * Loads a site's findings inputs from the database and runs the computation, through the
+ * findings cache: a result is reused while the site's data stamp (data-stamp.ts, read on every
+ * call) is unchanged. The site, its audit state and the draft/final status are added on every
+ * call from the site row the caller just read, so a purchase shows at once.
+ */
 import { DateTime } from 'luxon';
 import type { Db } from '../db/client';
 import { listMeters, readSeries, type MeterRow } from '../db/intervals';
@@ -7,11 +12,35 @@ import { listBills } from '../db/bills';
 import type { SiteDto } from '../schemas/site';
 import { ApiError, notFound } from '../api/errors';
 import { computeFindings, type Findings } from './compute';
+import { StampedCache } from './cache';
+import { findingsDataStamp } from './data-stamp';
 
 export type FindingsRequest = { from?: string; to?: string; tariffId?: string; meterId?: string; basis: 'month' | 'billing' };
-export type SiteFindings = Findings & { site: { id: string; name: string; auditState: string }; status: 'draft' | 'final'; meter: { id: string; name: string } | null };
+type MeterFindings = Findings & { meter: { id: string; name: string } | null };
+export type SiteFindings = MeterFindings & { site: { id: string; name: string; auditState: string }; status: 'draft' | 'final' };
 
+/**
+ * About 30 KB of JSON for a year of months with a two-rule tariff, whatever the interval length,
+ * so the entry bound is what usually applies; the byte bound (JSON length, a lower bound of the heap it holds) caps unusual results.
+ */
+export const FINDINGS_CACHE_LIMITS = { maxEntries: 500, maxBytes: 24 * 1024 * 1024 };
+export const findingsCache = new StampedCache<MeterFindings>(FINDINGS_CACHE_LIMITS, (v) => JSON.stringify(v).length);
+
+const keyOf = (organizationId: string, site: SiteDto, q: FindingsRequest) => [organizationId, site.id, site.timeZone, site.updatedAt, q.basis, q.from ?? '', q.to ?? '', q.tariffId ?? '', q.meterId ?? ''].join('\u0000');
+
+/** The findings of a site (one meter) over the asked range, with the site's current status. */
 export async function siteFindings(db: Db, organizationId: string, site: SiteDto, q: FindingsRequest): Promise<SiteFindings> {
+  // The stamp is read before any input, so a result is never stored under a stamp newer than its data.
+  const stamp = await findingsDataStamp(db, organizationId, site.id);
+  const f = await findingsCache.get(keyOf(organizationId, site, q), stamp, () => computeSiteFindings(db, organizationId, site, q));
+  return {
+    ...f,
+    site: { id: site.id, name: site.name, auditState: site.auditState },
+    status: site.auditState === 'draft' ? 'draft' : 'final',
+  };
+}
+
+async function computeSiteFindings(db: Db, organizationId: string, site: SiteDto, q: FindingsRequest): Promise<MeterFindings> {
   const meters = await listMeters(db, organizationId, site.id);
   let m: MeterRow | undefined = meters[0];
   if (q.meterId) {
@@ -37,12 +66,7 @@ export async function siteFindings(db: Db, organizationId: string, site: SiteDto
   const series = m ? await readSeries(db, organizationId, m, q.basis === 'billing' ? readFrom : (fromMs ?? 0), toMs ?? 8.64e15) : await emptySeries();
   const r = computeFindings({ series, zone, tariffs, basis: q.basis, billRanges, fromMs, toMs });
   if (!r.ok) throw new ApiError(r.status, 'cannot_compute', r.message);
-  return {
-    ...r.findings,
-    site: { id: site.id, name: site.name, auditState: site.auditState },
-    status: site.auditState === 'draft' ? 'draft' : 'final',
-    meter: m ? { id: m.id, name: m.name } : null,
-  };
+  return { ...r.findings, meter: m ? { id: m.id, name: m.name } : null };
 }
 
 async function emptySeries() {

@@ -5,6 +5,7 @@
 import ExcelJS from 'exceljs';
 import { z } from 'zod';
 import type { PaybackRow, PaybackTable } from './table';
+import { escapeFormula, quoteCsv } from '../csv-export';
 
 export const ExportQuerySchema = z.strictObject({ format: z.enum(['csv', 'xlsx'], { error: 'Use format=csv or format=xlsx.' }).default('csv').describe('csv or xlsx') });
 
@@ -29,10 +30,8 @@ export const EXPORT_COLUMNS: Column[] = [
   { header: 'NPV at 120 % savings (currency)', value: (r) => r.npvHigh, kind: 'money' },
 ];
 
-/** Prefixes a single quote to text a spreadsheet would evaluate. */
-export function escapeCell(text: string): string {
-  return /^[=+\-@\t\r]/.test(text) ? `'${text}` : text;
-}
+/** Prefixes a single quote to text a spreadsheet would evaluate (the CSV and XLSX exports share it). */
+export const escapeCell = escapeFormula;
 
 function cellText(c: Column, r: PaybackRow): string {
   const v = c.value(r);
@@ -41,9 +40,7 @@ function cellText(c: Column, r: PaybackRow): string {
   return escapeCell(v);
 }
 
-function csvField(s: string): string {
-  return /[",\r\n]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s;
-}
+const csvField = quoteCsv;
 
 export function paybackCsv(t: PaybackTable): string {
   const lines = [EXPORT_COLUMNS.map((c) => csvField(c.header)).join(',')];

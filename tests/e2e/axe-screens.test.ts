@@ -15,7 +15,7 @@ afterAll(async () => {
   await browser?.close();
 });
 
-/** Screens not covered by the role journeys: the sign-in pages, Members, Purchases, the workspace form, 404. */
+/** Screens not covered by the role journeys: the sign-in pages, Members, Purchases, Activity, the workspace form, 404. */
 describe('axe on the remaining screens (no serious or critical violation)', () => {
   it('signed out and signed in as the Owner, at 1280 px and at a 390 px phone width', async () => {
     for (const width of [1280, 390]) {
@@ -36,7 +36,7 @@ describe('axe on the remaining screens (no serious or critical violation)', () =
       await page.getByLabel('Password').fill(DEMO.password);
       await page.getByRole('button', { name: 'Sign in' }).click();
       await page.waitForURL(`${base}/`);
-      for (const path of ['/members', '/purchases', '/workspaces/new', '/sites/site_does_not_exist']) {
+      for (const path of ['/members', '/purchases', '/activity', '/activity?kind=tariff', '/workspaces/new', '/sites/site_does_not_exist']) {
         await page.goto(`${base}${path}`);
         await check(path);
       }

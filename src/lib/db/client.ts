@@ -1,13 +1,15 @@
 /**
  * The database handle: Drizzle over @libsql/client. A `file:` URL (the default) is a local
- * SQLite file put in WAL mode with a busy timeout; a libsql:// or https:// URL talks to a
- * libSQL server unchanged, for deployments with several app instances.
+ * SQLite file put in WAL mode; a locked database is retried (see busy.ts) for every call
+ * through this handle, Drizzle's and better-auth's alike. A libsql:// or https:// URL
+ * talks to a libSQL server unchanged, for deployments with several app instances.
  */
 import { createClient, type Client } from '@libsql/client';
 import { drizzle, type LibSQLDatabase } from 'drizzle-orm/libsql';
 import { mkdirSync } from 'node:fs';
 import { dirname } from 'node:path';
 import * as schema from './schema';
+import { BUSY_SYNC_WAIT_MS, withBusyRetry } from './busy';
 import { getConfig } from '../config';
 
 export type Db = LibSQLDatabase<typeof schema> & { $client: Client };
@@ -21,8 +23,9 @@ export function openDb(url: string, authToken?: string): { db: Db; ready: Promis
     const path = url.slice('file:'.length);
     if (path && path !== ':memory:') mkdirSync(dirname(path), { recursive: true });
   }
-  // `timeout` is SQLite's busy timeout, applied by the client to every pooled connection.
-  const client = createClient({ url, authToken, timeout: isFile ? 5000 : undefined });
+  // `timeout` is SQLite's busy timeout on every pooled connection. It blocks the event loop
+  // while it waits, so it is short; the retries with back-off are async (withBusyRetry).
+  const client = withBusyRetry(createClient({ url, authToken, timeout: isFile ? BUSY_SYNC_WAIT_MS : undefined }));
   const db = drizzle(client, { schema }) as Db;
   const ready = isFile
     ? client

@@ -6,7 +6,8 @@ import { Field } from './Field';
 import { api, ApiClientError, fieldErrors } from './api';
 
 type Member = { id: string; userId: string; name: string; email: string; role: string; createdAt: string };
-type Invitation = { id: string; email: string; role: string | null; status: string; expiresAt: string };
+type MailState = { status: 'sent' | 'sending' | 'delayed' | 'failed'; message: string } | null;
+type Invitation = { id: string; email: string; role: string | null; status: string; expiresAt: string; mail?: MailState };
 const ROLES = [
   ['owner', 'Owner'],
   ['energy_manager', 'Energy manager'],
@@ -26,7 +27,7 @@ function Members({ canManage, meId }: { canManage: boolean; meId: string }) {
 
   const invite = useMutation({
     mutationFn: (body: { email: string; role: string }) => api<{ invitation: Invitation }>('/api/invitations', { method: 'POST', body }),
-    onSuccess: ({ invitation }) => { setErrors({}); setNotice({ ok: true, text: `Invitation sent to ${invitation.email} as ${label(invitation.role)}.` }); refresh(); },
+    onSuccess: ({ invitation }) => { setErrors({}); setNotice(invitation.mail && invitation.mail.status !== 'sent' && invitation.mail.status !== 'sending' ? { ok: false, text: `Invitation saved for ${invitation.email} as ${label(invitation.role)}. ${invitation.mail.message}` } : { ok: true, text: `Invitation sent to ${invitation.email} as ${label(invitation.role)}.` }); refresh(); },
     onError: (e) => (e instanceof ApiClientError && Object.keys(e.fields).length ? setErrors(e.fields) : fail(e)),
   });
   const changeRole = useMutation({
@@ -103,6 +104,7 @@ function Members({ canManage, meId }: { canManage: boolean; meId: string }) {
                 <li key={i.id} className="flex items-center gap-3">
                   <span>{i.email}</span><span className="tag">{label(i.role)}</span>
                   <span className="text-muted">until {new Date(i.expiresAt).toLocaleDateString('en-GB', { day: 'numeric', month: 'short', year: 'numeric' })}</span>
+                  {i.mail && (i.mail.status === 'delayed' || i.mail.status === 'failed') && <span className="tag" title={i.mail.message}>{i.mail.status === 'delayed' ? 'E-mail delayed, retrying' : 'E-mail not delivered'}</span>}
                   <button className="btn btn-quiet text-sm" onClick={() => cancel.mutate(i)} aria-label={`Cancel invitation to ${i.email}`}>Cancel</button>
                 </li>
               ))}

@@ -9,7 +9,9 @@ import { asc, eq } from 'drizzle-orm';
 import { getConfig } from '../config';
 import { getDb } from '../db/client';
 import { authSchema, member } from '../db/schema';
-import { sendMail } from '../mail/mailer';
+import { createAuthMiddleware } from 'better-auth/api';
+import { mailServerReachable, sendMail, startMailOutbox } from '../mail/mailer';
+import type { MailRef } from '../mail/outbox';
 import { invitationMail, passwordResetMail, verificationMail } from '../mail/templates';
 import { ac, orgRoles } from './org-roles';
 import { ROLE_LABELS, isRole } from './permissions';
@@ -17,10 +19,20 @@ import { ROLE_LABELS, isRole } from './permissions';
 const cfg = getConfig();
 const db = getDb();
 
-/** Mail is sent in the background so response times do not reveal whether an account exists. */
-function deliver(to: string, message: Parameters<typeof sendMail>[1]) {
-  void sendMail(to, message);
+/**
+ * Mail goes through the durable outbox. Account mails are not awaited, so response times
+ * do not reveal whether an account exists; the answer says instead whether the mail
+ * server is taking mail at all (the same for every address).
+ */
+function deliver(to: string, message: Parameters<typeof sendMail>[1], ref: MailRef) {
+  void sendMail(to, message, ref).catch((e) => console.error(`[mail] could not keep a ${ref.kind} mail for ${to}`, e));
 }
+
+/** Mail left from before a restart is picked up with the first request. */
+startMailOutbox();
+
+const MAIL_PATHS = new Set(['/sign-up/email', '/send-verification-email', '/request-password-reset']);
+const DELAYED = 'Your account request is saved, but our mail server is not accepting mail right now, so the e-mail will be late. It is kept and sent automatically as soon as the server is back; you do not need to sign up again.';
 
 export const auth = betterAuth({
   appName: 'Varledger',
@@ -36,14 +48,14 @@ export const auth = betterAuth({
     maxPasswordLength: 128,
     resetPasswordTokenExpiresIn: 3600,
     revokeSessionsOnPasswordReset: true,
-    sendResetPassword: async ({ user, url }) => deliver(user.email, passwordResetMail(user.name, url)),
+    sendResetPassword: async ({ user, url }) => deliver(user.email, passwordResetMail(user.name, url), { kind: 'password-reset' }),
   },
   emailVerification: {
     sendOnSignUp: true,
     sendOnSignIn: true,
     autoSignInAfterVerification: true,
     expiresIn: 3600,
-    sendVerificationEmail: async ({ user, url }) => deliver(user.email, verificationMail(user.name, url)),
+    sendVerificationEmail: async ({ user, url }) => deliver(user.email, verificationMail(user.name, url), { kind: 'verification' }),
   },
   session: { expiresIn: 60 * 60 * 24 * 14, updateAge: 60 * 60 * 24 },
   rateLimit: {
@@ -57,6 +69,16 @@ export const auth = betterAuth({
     },
   },
   advanced: { useSecureCookies: cfg.secureCookies, cookiePrefix: 'varledger' },
+  hooks: {
+    // Answers that promise an e-mail say whether it will be late (mail: { status, message }).
+    after: createAuthMiddleware(async (ctx) => {
+      if (!MAIL_PATHS.has(ctx.path)) return;
+      const returned = ctx.context.returned;
+      if (!returned || typeof returned !== 'object' || returned instanceof Response || 'statusCode' in returned) return;
+      const ok = await mailServerReachable();
+      return ctx.json({ ...(returned as Record<string, unknown>), mail: ok ? { status: 'queued', message: 'The e-mail is on its way.' } : { status: 'delayed', message: DELAYED } });
+    }),
+  },
   databaseHooks: {
     session: {
       create: {
@@ -77,7 +99,10 @@ export const auth = betterAuth({
       cancelPendingInvitationsOnReInvite: true,
       sendInvitationEmail: async (data) => {
         const role = isRole(data.role) ? ROLE_LABELS[data.role] : String(data.role);
-        deliver(data.email, invitationMail(data.inviter.user.name, data.organization.name, role, `${cfg.baseUrl}/invitations/${data.id}`));
+        // The first attempt is awaited (at most 3 s) so the invitation answer can say whether the mail went out.
+        const sending = sendMail(data.email, invitationMail(data.inviter.user.name, data.organization.name, role, `${cfg.baseUrl}/invitations/${data.id}`), { kind: 'invitation', organizationId: data.organization.id, refType: 'invitation', refId: data.id });
+        sending.catch((e) => console.error(`[mail] could not keep the invitation mail for ${data.email}`, e));
+        await Promise.race([sending.catch(() => undefined), new Promise((r) => setTimeout(r, 3000).unref())]);
       },
     }),
   ],

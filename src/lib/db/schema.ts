@@ -354,3 +354,33 @@ export const paymentEvent = sqliteTable(
   },
   (t) => [index('payment_event_org_idx').on(t.organizationId)],
 );
+
+/**
+ * Mail waiting to be delivered (or delivered): every product e-mail is written here first
+ * and sent by the outbox worker, retried with back-off while the SMTP server is down, so a
+ * mail is never lost with the process. Bodies are cleared once sent (they may hold links).
+ */
+export const mailOutbox = sqliteTable(
+  'mail_outbox',
+  {
+    id: text('id').primaryKey(),
+    /** The workspace the mail concerns, when there is one (not for sign-up mails). */
+    organizationId: text('organization_id').references(() => organization.id, { onDelete: 'cascade' }),
+    kind: text('kind', { enum: ['verification', 'password-reset', 'invitation', 'receipt', 'report-issued', 'other'] }).notNull(),
+    /** What the mail is about, e.g. `invitation` + its id, so a screen can show the delivery state. */
+    refType: text('ref_type'),
+    refId: text('ref_id'),
+    toAddress: text('to_address').notNull(),
+    subject: text('subject').notNull(),
+    textBody: text('text_body').notNull(),
+    htmlBody: text('html_body').notNull(),
+    status: text('status', { enum: ['pending', 'sent', 'failed'] }).notNull().default('pending'),
+    attempts: integer('attempts').notNull().default(0),
+    nextAttemptAt: integer('next_attempt_at', { mode: 'timestamp_ms' }).notNull(),
+    lastError: text('last_error'),
+    messageId: text('message_id'),
+    createdAt: createdAt(),
+    sentAt: integer('sent_at', { mode: 'timestamp_ms' }),
+  },
+  (t) => [index('mail_outbox_due_idx').on(t.status, t.nextAttemptAt), index('mail_outbox_ref_idx').on(t.refType, t.refId)],
+);

@@ -1,4 +1,4 @@
-/** Sends the receipt of a paid purchase over SMTP (in the background, with the mailer's retries). */
+/** Sends the receipt of a paid purchase through the mail outbox (kept and retried until the SMTP server takes it). */
 import { getConfig } from '../config';
 import { sendMail } from '../mail/mailer';
 import { receiptMail } from '../mail/templates';
@@ -20,5 +20,5 @@ export function receiptMessage(p: PurchaseRow, workspaceName: string) {
 }
 
 export function sendReceipt(p: PurchaseRow, workspaceName: string): void {
-  void sendMail(p.buyerEmail, receiptMessage(p, workspaceName));
+  sendMail(p.buyerEmail, receiptMessage(p, workspaceName), { kind: 'receipt', organizationId: p.organizationId, refType: 'purchase', refId: p.id }).catch((e) => console.error(`[mail] could not keep the receipt of ${p.id}`, e));
 }

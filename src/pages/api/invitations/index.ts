@@ -8,6 +8,7 @@ import { listMembers } from '@/lib/db/workspaces';
 import { invitationDto, listPendingInvitations } from '@/lib/db/invitations';
 import { recordEvent } from '@/lib/db/audit-log';
 import { InviteSchema } from '@/lib/schemas/workspace';
+import { deliveriesOf } from '@/lib/mail/outbox';
 
 export const prerender = false;
 
@@ -15,7 +16,8 @@ export const prerender = false;
 export const GET = endpoint(async (ctx) => {
   const { workspace } = requirePermission(ctx, 'members:manage');
   const rows = await listPendingInvitations(getDb(), workspace.id);
-  return json({ invitations: rows.map((r) => invitationDto(r)) });
+  const mail = await deliveriesOf(getDb(), workspace.id, 'invitation', rows.map((r) => r.id));
+  return json({ invitations: rows.map((r) => ({ ...invitationDto(r), mail: mail.get(r.id) ?? null })) });
 });
 
 /** Invites someone by e-mail with a role; the invitation mail goes through the SMTP sink. */
@@ -30,5 +32,7 @@ export const POST = endpoint(async (ctx) => {
     auth.api.createInvitation({ headers: ctx.request.headers, body: { email, role, organizationId: workspace.id, resend: true } }),
   );
   await recordEvent(getDb(), workspace.id, user.id, { action: 'member.invited', subjectType: 'invitation', subjectId: inv.id, detail: { email, role } });
-  return json({ invitation: { id: inv.id, email: inv.email, role: inv.role, status: inv.status, expiresAt: new Date(inv.expiresAt).toISOString() } }, 201);
+  // The invitation is saved either way; `mail` says whether its e-mail went out or is delayed (kept and retried).
+  const mail = (await deliveriesOf(getDb(), workspace.id, 'invitation', [inv.id])).get(inv.id) ?? null;
+  return json({ invitation: { id: inv.id, email: inv.email, role: inv.role, status: inv.status, expiresAt: new Date(inv.expiresAt).toISOString(), mail } }, 201);
 });

@@ -12,7 +12,8 @@ import { recordEvent } from '../db/audit-log';
 import { AUDIT_STATE_LABELS } from '../schemas/site';
 import { getStripe } from './stripe';
 import { pendingPurchases, getPurchase, setPurchaseStatus, type PurchaseRow } from './purchases';
-import { refreshPurchase } from './refresh';
+import { refreshPurchase, refreshPurchaseChecked } from './refresh';
+import { noteProvider, providerUnreachable } from './provider-status';
 
 /** How long a hosted checkout stays payable (the provider allows 30 minutes to 24 hours). */
 const CHECKOUT_MINUTES = 60;
@@ -33,7 +34,9 @@ export async function startPurchase(db: Db, buyer: Buyer, siteIds: string[]): Pr
   // A site already in an open checkout: bring that purchase up to date, refuse if it is still open.
   for (const p of await pendingPurchases(db, buyer.organizationId)) {
     if (!p.siteIds.some((id) => byId.has(id))) continue;
-    const now = await refreshPurchase(db, p);
+    if (!p.checkoutSessionId && (await closeAbandonedStart(db, p))) continue;
+    const { row: now, reached } = await refreshPurchaseChecked(db, p);
+    if (!reached) throw unavailable(`We could not ask the payment service whether the open checkout for ${p.siteNames.join(', ')} was paid, so no new checkout was started and nothing was charged. Try again in a minute.`);
     if (now.status === 'pending') throw new ApiError(409, 'checkout_open', `A checkout for ${p.siteNames.join(', ')} is still open. Finish paying it or cancel it in the list below first.`, undefined, { purchaseId: p.id });
     if (now.status === 'paid') throw new ApiError(409, 'already_audited', `${p.siteNames.join(', ')} was paid a moment ago. Reload the page.`);
   }
@@ -58,13 +61,38 @@ export async function startPurchase(db: Db, buyer: Buyer, siteIds: string[]): Pr
       { idempotencyKey: `purchase-${id}` },
     );
   } catch (e) {
-    await db.delete(purchase).where(and(eq(purchase.organizationId, buyer.organizationId), eq(purchase.id, id)));
-    console.error('[payments] creating the checkout failed', e);
-    throw new ApiError(502, 'payment_unavailable', 'The payment service did not answer. Nothing was charged; try again in a minute.');
+    // No checkout exists that anyone could pay: remove our record (a start left behind by a
+    // failed delete has no checkout and is closed by the next attempt, see closeAbandonedStart).
+    await db.delete(purchase).where(and(eq(purchase.organizationId, buyer.organizationId), eq(purchase.id, id))).catch((d) => console.error(`[payments] could not remove the unstarted purchase ${id}`, d));
+    console.error('[payments] creating the checkout failed', (e as Error).message);
+    if (providerUnreachable(e)) noteProvider(false);
+    throw unavailable('The payment service could not be reached, so no checkout was opened and nothing was charged. Try again in a minute.');
   }
-  const [row] = await db.update(purchase).set({ checkoutSessionId: session.id, checkoutUrl: session.url }).where(and(eq(purchase.organizationId, buyer.organizationId), eq(purchase.id, id))).returning();
-  await recordEvent(db, buyer.organizationId, buyer.userId, { action: 'purchase.started', subjectType: 'purchase', subjectId: id, detail: { siteIds, amountTotal: row!.amountTotal, currency, sessionId: session.id } });
+  noteProvider(true);
+  let row: PurchaseRow | undefined;
+  try {
+    await db.transaction(async (tx) => {
+      [row] = await tx.update(purchase).set({ checkoutSessionId: session.id, checkoutUrl: session.url }).where(and(eq(purchase.organizationId, buyer.organizationId), eq(purchase.id, id), eq(purchase.status, 'pending'))).returning();
+      if (!row) throw new ApiError(409, 'checkout_closed', 'This purchase was closed while its checkout was being opened. Nothing was charged; start again.');
+      await recordEvent(tx as unknown as Db, buyer.organizationId, buyer.userId, { action: 'purchase.started', subjectType: 'purchase', subjectId: id, detail: { siteIds, amountTotal: row!.amountTotal, currency, sessionId: session.id } });
+    });
+  } catch (e) {
+    // The checkout exists but we could not record it (e.g. the database stayed locked): close it
+    // at the provider so it can never be paid unrecorded, drop our record, and let the API answer.
+    await getStripe().checkout.sessions.expire(session.id).catch((x) => console.error(`[payments] could not expire unrecorded session ${session.id}`, (x as Error).message));
+    await db.delete(purchase).where(and(eq(purchase.organizationId, buyer.organizationId), eq(purchase.id, id))).catch(() => undefined);
+    throw e;
+  }
   return row!;
+}
+
+const unavailable = (message: string) => new ApiError(502, 'payment_unavailable', message, undefined, { retryAfterSeconds: 30 });
+
+/** A pending purchase without a checkout is a start that failed half-way; after 2 minutes (past any SDK retry) it is closed. */
+const ABANDONED_START_MS = 2 * 60_000;
+async function closeAbandonedStart(db: Db, p: PurchaseRow): Promise<boolean> {
+  if (Date.now() - p.createdAt.getTime() < ABANDONED_START_MS) throw new ApiError(409, 'checkout_starting', `A checkout for ${p.siteNames.join(', ')} is being opened right now. Wait a moment and reload the page.`, undefined, { purchaseId: p.id });
+  return setPurchaseStatus(db, p.organizationId, p.id, 'cancelled', ['pending']);
 }
 
 /** The buyer went back from the hosted page: close the checkout there so it cannot be paid later. */

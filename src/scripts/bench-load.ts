@@ -13,6 +13,7 @@ import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
 import { loadavg, tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { createServer } from 'node:net';
+import { spawnSync } from 'node:child_process';
 import autocannon from 'autocannon';
 import { openDb } from '../lib/db/client';
 import { applyMigrations } from '../lib/db/migrate';
@@ -25,10 +26,17 @@ const DURATION_S = Number(process.env.BENCH_LOAD_SECONDS ?? 20);
 const IMPORTS = 10;
 const ROWS = 35_040; // 365 days x 96 quarter-hours
 const GOAL_P95_MS = 100;
+const REFERENCE_S = 5;
 
 const freePort = () => new Promise<number>((res) => { const s = createServer(); s.listen(0, '127.0.0.1', () => { const p = (s.address() as { port: number }).port; s.close(() => res(p)); }); });
 const load = () => loadavg().map((x) => x.toFixed(2)).join(' / ');
 const rssMb = (pid: number, field: 'VmRSS' | 'VmHWM') => Number(readFileSync(`/proc/${pid}/status`, 'utf8').match(new RegExp(`${field}:\\s+(\\d+)`))?.[1] ?? NaN) / 1024;
+const CLK_TCK = Number(spawnSync('getconf', ['CLK_TCK'], { encoding: 'utf8' }).stdout.trim()) || 100;
+/** CPU time (user + system) the process has used, ms. */
+const cpuMs = (pid: number) => {
+  const f = readFileSync(`/proc/${pid}/stat`, 'utf8').split(') ')[1]!.split(' ');
+  return ((Number(f[11]) + Number(f[12])) * 1000) / CLK_TCK;
+};
 const pct = (sorted: number[], p: number) => (sorted.length ? sorted[Math.min(sorted.length - 1, Math.ceil((p / 100) * sorted.length) - 1)]! : NaN);
 
 /**
@@ -125,6 +133,7 @@ try {
   const latencies: number[] = [];
   const sizes = new Map<number, number>();
   const rssBefore = rssMb(pid, 'VmRSS');
+  const cpu0 = cpuMs(pid);
   const instance = autocannon({ url: `${base}/api/sites/${siteId}/findings`, connections: CONNECTIONS, duration: DURATION_S, headers: { cookie } });
   instance.on('response', (_c, status, bytes, ms) => {
     latencies.push(ms);
@@ -132,6 +141,7 @@ try {
   });
   const res = await instance;
   const loadAfter = load();
+  const cpuPerRequest = (cpuMs(pid) - cpu0) / res.requests.total;
   latencies.sort((a, b) => a - b);
   const p95 = pct(latencies, 95);
   const l = res.latency;
@@ -139,8 +149,14 @@ try {
   console.log(`  latency ms: p50 ${l.p50}  p90 ${l.p90}  p95 ${p95.toFixed(1)} (from ${latencies.length} response times)  p97.5 ${l.p97_5}  p99 ${l.p99}  max ${l.max}  mean ${l.average.toFixed(1)}`);
   console.log(`  non-2xx: ${res.non2xx}  errors: ${res.errors}  timeouts: ${res.timeouts}  status codes: ${JSON.stringify(res.statusCodeStats)}`);
   console.log(`  distinct 200 body sizes: ${sizes.size} (${[...sizes].map(([b, n]) => `${b} B x ${n}`).join(', ')})`);
-  console.log(`  server RSS ${rssBefore.toFixed(0)} MB before, ${rssMb(pid, 'VmRSS').toFixed(0)} MB after; load average after: ${loadAfter}`);
+  console.log(`  server CPU ${cpuPerRequest.toFixed(2)} ms a request (user + system); RSS ${rssBefore.toFixed(0)} MB before, ${rssMb(pid, 'VmRSS').toFixed(0)} MB after; load average after: ${loadAfter}`);
   console.log(`  goal p95 < ${GOAL_P95_MS} ms with no errors: ${p95 < GOAL_P95_MS && res.non2xx === 0 && res.errors === 0 ? 'MET' : 'NOT MET'} on this machine`);
+  // For reading the figure above: the same connections on an endpoint that does only what every
+  // signed-in request does (middleware: session and workspace lookup) plus SELECT 1.
+  const refCpu0 = cpuMs(pid);
+  const ref = await autocannon({ url: `${base}/api/health`, connections: CONNECTIONS, duration: REFERENCE_S, headers: { cookie } });
+  const refCpu = (cpuMs(pid) - refCpu0) / ref.requests.total;
+  console.log(`  reference, GET /api/health with the same cookie, ${REFERENCE_S} s: ${ref.requests.average.toFixed(0)} req/s, p50 ${ref.latency.p50} ms, p97.5 ${ref.latency.p97_5} ms, server CPU ${refCpu.toFixed(2)} ms a request, non-2xx ${ref.non2xx}, errors ${ref.errors}; load average: ${load()}`);
   check(res.non2xx === 0, `${res.non2xx} non-2xx findings responses under load`);
   check(res.errors === 0, `${res.errors} connection errors under load`);
   check(res.requests.total > 0, 'no findings request completed under load');
@@ -155,7 +171,7 @@ try {
   let peakRss = rssMb(pid, 'VmRSS');
   const sampler = setInterval(() => (peakRss = Math.max(peakRss, rssMb(pid, 'VmRSS'))), 50);
   const w0 = performance.now();
-  const results = await Promise.all(sites.map((s, k) => upload(s.id, s.year.csv, `import-bench-${k + 1}.csv`).catch((e: Error) => ({ status: 0, body: { error: { code: 'fetch', message: e.message } }, ms: NaN }))));
+  const results = await Promise.all(sites.map((s, k) => upload(s.id, s.year.csv, `import-bench-${k + 1}.csv`).catch((e: Error) => ({ status: 0, body: { error: { code: 'fetch', message: e.message } } as UploadBody, ms: NaN }))));
   const wallMs = performance.now() - w0;
   clearInterval(sampler);
   const hwmAfter = rssMb(pid, 'VmHWM');

@@ -138,10 +138,10 @@ describe('two imports to the same meter at once', () => {
   it('overlapping files: exactly one lands, the other is refused, the stored data is one file, never a mix', async () => {
     const siteId = await newSite(energy, 'Quarry Road bakery');
     const path = `/api/sites/${siteId}/meter-data`;
-    // Ten days of quarter-hours each (960 intervals); B starts four days into A.
+    // Twenty days of 1-minute data each (28,800 intervals, big enough that both are read at the same time); B starts ten days into A.
     const files = [
-      { name: 'bakery-a.csv', from: '2026-01-01T00:00:00Z', kwh: 100, content: loadCsv('2026-01-01T00:00:00Z', 960, 15, 100, 60) },
-      { name: 'bakery-b.csv', from: '2026-01-05T00:00:00Z', kwh: 250, content: loadCsv('2026-01-05T00:00:00Z', 960, 15, 250, 20) },
+      { name: 'bakery-a.csv', from: '2026-01-01T00:00:00Z', kwh: 1.5, content: loadCsv('2026-01-01T00:00:00Z', 28_800, 1, 1.5, 0.9) },
+      { name: 'bakery-b.csv', from: '2026-01-11T00:00:00Z', kwh: 2.5, content: loadCsv('2026-01-11T00:00:00Z', 28_800, 1, 2.5, 0.5) },
     ];
     const answers = await Promise.all(files.map((f) => uploadFile(energy, path, { name: f.name, content: f.content }, { mapping })));
     expect(answers.map((a) => a.status).sort()).toEqual([201, 409]);
@@ -151,12 +151,35 @@ describe('two imports to the same meter at once', () => {
     expect(loser.json.error.code).toBe('overlap');
     expect(loser.json.error.message).toMatch(/overlaps data already imported/);
     const stored = await storedIntervals(sql, siteId);
-    expect(stored.intervals).toHaveLength(960);
+    expect(stored.intervals).toHaveLength(28_800);
     expect(new Set(stored.intervals.map((i) => i.kwh))).toEqual(new Set([winner.kwh]));
     expect(stored.intervals[0]!.t).toBe(Date.parse(winner.from));
     expect(new Set(stored.intervals.map((i) => i.importId))).toEqual(new Set([answers[wi]!.json.import.id]));
     const refused = await energy.get(`${path}/imports/${loser.json.error.importId}`);
     expect(refused.json.import.status).toBe('rejected');
+    held();
+  });
+
+  it('overlapping files sent to two app instances on one database at once: one lands, the other is refused, no mix', async () => {
+    const twin = await rig.twin();
+    try {
+      const other = await twin.as(DEMO.energy);
+      const siteId = await newSite(energy, 'Quarry Road bakery store');
+      const path = `/api/sites/${siteId}/meter-data`;
+      const files = [
+        { client: energy, name: 'store-a.csv', from: '2026-02-01T00:00:00Z', kwh: 1.5, content: loadCsv('2026-02-01T00:00:00Z', 28_800, 1, 1.5, 0.9) },
+        { client: other, name: 'store-b.csv', from: '2026-02-11T00:00:00Z', kwh: 2.5, content: loadCsv('2026-02-11T00:00:00Z', 28_800, 1, 2.5, 0.5) },
+      ];
+      const answers = await Promise.all(files.map((f) => uploadFile(f.client, path, { name: f.name, content: f.content }, { mapping })));
+      expect(answers.map((a) => a.status).sort(), JSON.stringify(answers.map((a) => a.json?.error?.code))).toEqual([201, 409]);
+      const wi = answers.findIndex((a) => a.status === 201);
+      expect(answers[1 - wi]!.json.error.code).toBe('overlap');
+      const stored = await storedIntervals(sql, siteId);
+      expect(stored.intervals).toHaveLength(28_800);
+      expect(new Set(stored.intervals.map((i) => i.kwh))).toEqual(new Set([files[wi]!.kwh]));
+    } finally {
+      await twin.stop();
+    }
     held();
   });
 

@@ -27,6 +27,8 @@ export type Rig = {
   /** A client signed in on this server (demo password). */
   as: (email: string) => Promise<Client>;
   anonymous: () => Client;
+  /** A second app server on the same database and data folder (another instance), on its own port. */
+  twin: () => Promise<{ baseUrl: string; as: (email: string) => Promise<Client>; stop: () => Promise<void> }>;
   /** A plain SQLite connection to the same file (no app code, no retries). */
   sql: () => SqlClient;
   dispose: () => Promise<void>;
@@ -84,6 +86,12 @@ export async function startRig(opts: { smtpPort: number; paymentApi?: string; en
       await a?.stop();
     },
     as: async (email: string) => clientAt(baseUrl).signIn(email, DEMO.password),
+    twin: async () => {
+      const twinPort = await freePort();
+      const twinUrl = `http://127.0.0.1:${twinPort}`;
+      const other = await startAppServer({ ...env, PORT: String(twinPort), APP_URL: twinUrl }, { quiet: true });
+      return { baseUrl: twinUrl, as: (email: string) => clientAt(twinUrl).signIn(email, DEMO.password), stop: () => other.stop() };
+    },
     anonymous: () => clientAt(baseUrl),
     sql: () => {
       // SQLite waits up to 5 s for the app's own short writes before this connection gives up.

@@ -9,6 +9,7 @@ import { getDb } from './lib/db/client';
 import { resolveWorkspace } from './lib/db/workspaces';
 import { errorResponse, ApiError } from './lib/api/errors';
 import { markStaleImportsInterrupted } from './lib/db/meter-imports';
+import { changesIdentity, forgetAll, recall, remember, sessionKey } from './lib/auth/session-cache';
 
 const cfg = getConfig();
 const SAFE = new Set(['GET', 'HEAD', 'OPTIONS']);
@@ -63,14 +64,26 @@ export const onRequest = defineMiddleware(async (context, next) => {
     return errorResponse(new ApiError(403, 'bad_origin', 'This request did not come from a Varledger page. Reload the page and try again.'));
   }
 
-  const found = await auth.api.getSession({ headers: request.headers });
-  if (found) {
-    context.locals.user = found.user;
-    context.locals.session = found.session;
-    context.locals.workspace = await resolveWorkspace(getDb(), found.user.id, found.session.activeOrganizationId);
+  const identityChange = changesIdentity(request.method, path);
+  if (identityChange) forgetAll();
+  const key = sessionKey(request.headers.get('cookie'));
+  const known = key && !identityChange ? recall(key) : null;
+  if (known) {
+    context.locals.user = known.user;
+    context.locals.session = known.session;
+    context.locals.workspace = known.workspace;
+  } else if (key) {
+    const found = await auth.api.getSession({ headers: request.headers });
+    if (found) {
+      context.locals.user = found.user;
+      context.locals.session = found.session;
+      context.locals.workspace = await resolveWorkspace(getDb(), found.user.id, found.session.activeOrganizationId);
+      if (!identityChange) remember(key, { user: found.user, session: found.session, workspace: context.locals.workspace });
+    }
   }
 
   const response = await next();
+  if (identityChange) forgetAll();
   for (const [k, v] of Object.entries(SECURITY_HEADERS)) if (!response.headers.has(k)) response.headers.set(k, v);
   if (path.startsWith('/api/')) response.headers.set('cache-control', 'no-store');
   return response;

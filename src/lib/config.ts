@@ -29,6 +29,7 @@ const EnvSchema = z.object({
   UPLOAD_MAX_BYTES: z.coerce.number().int().min(1024).default(100 * 1024 * 1024).describe('Largest meter-data upload, bytes'),
   BILL_DOCUMENT_MAX_BYTES: z.coerce.number().int().min(1024).default(10 * 1024 * 1024).describe('Largest bill document (PDF, PNG, JPEG), bytes'),
   SECURE_COOKIES: z.enum(['auto', 'true', 'false']).default('auto'),
+  TRUST_PROXY_HEADER: z.enum(['x-forwarded-for', 'x-real-ip']).optional().describe('Behind a reverse proxy: the header it sets with the client address (sign-in rate limits key on it; read by src/scripts/serve.mjs); unset, the socket address is used and forwarded-for headers from clients are ignored'),
   STRIPE_SECRET_KEY: z.string().regex(/^sk_(test|live)_[A-Za-z0-9]+$/, 'STRIPE_SECRET_KEY must look like sk_test_... or sk_live_...').default('sk_test_varledgerLocalFake0000000000').describe('Secret API key of the payment provider (the default only works with the local fake)'),
   STRIPE_WEBHOOK_SECRET: z.string().regex(/^whsec_[A-Za-z0-9]+$/, 'STRIPE_WEBHOOK_SECRET must look like whsec_...').default('whsec_varledgerLocalFake0000000000').describe('Signing secret of the webhook endpoint'),
   STRIPE_API_BASE: z.string().optional().describe('API base URL; defaults to the local fake when PAYMENT_FAKE=on, else https://api.stripe.com'),

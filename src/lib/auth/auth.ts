@@ -2,6 +2,7 @@
  * better-auth on our Drizzle database: e-mail and password with verification and reset by
  * e-mail, sessions in cookies, workspaces as organizations with our four roles.
  */
+import { CLIENT_IP_HEADER } from './client-ip';
 import { betterAuth } from 'better-auth';
 import { drizzleAdapter } from 'better-auth/adapters/drizzle';
 import { organization } from 'better-auth/plugins';
@@ -68,7 +69,8 @@ export const auth = betterAuth({
       '/request-password-reset': { window: 60, max: 5 },
     },
   },
-  advanced: { useSecureCookies: cfg.secureCookies, cookiePrefix: 'varledger' },
+  // The origin check stays on whatever the environment says (better-auth would skip it when TEST is set).
+  advanced: { useSecureCookies: cfg.secureCookies, cookiePrefix: 'varledger', disableOriginCheck: false, ipAddress: { ipAddressHeaders: [CLIENT_IP_HEADER] } },
   hooks: {
     // Answers that promise an e-mail say whether it will be late (mail: { status, message }).
     after: createAuthMiddleware(async (ctx) => {

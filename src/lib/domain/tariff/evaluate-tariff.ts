@@ -110,7 +110,9 @@ export function evaluatePrepared(prep: PreparedTariff, correction?: ReactiveCorr
   const { tariff, plan, ruleWindow } = prep;
   const explain = opts.explain ?? true;
   aggregate(plan, correction);
-  const memories: RuleMemory[][] = tariff.rules.map((rule) => [...historyMemory(rule, opts.history ?? []), ...(opts.memory?.[rule.id] ?? [])]);
+  // Own entries only: a rule id such as "constructor" or "valueOf" must not find Object.prototype's member.
+  const carried = (id: string) => (opts.memory && Object.hasOwn(opts.memory, id) ? opts.memory[id]! : []);
+  const memories: RuleMemory[][] = tariff.rules.map((rule) => [...historyMemory(rule, opts.history ?? []), ...carried(rule.id)]);
   const byRule = tariff.rules.map((rule) => ({ ruleId: rule.id, ruleLabel: rule.name ?? ruleTypeLabel(rule.type), total: 0 }));
   let total = 0;
   const periods = plan.periods.map((period, p) => {

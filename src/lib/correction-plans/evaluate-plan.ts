@@ -15,6 +15,10 @@ import { lossSavingBenefit, releasedCapacityBenefit } from '../domain/economics/
 import type { OptionalBenefit } from '../domain/economics/economics';
 import { specKvar, stepsOf, type PlanSpec } from './plan-spec';
 import type { SiteInputs } from './site-inputs';
+import { ApiError } from '../api/errors';
+
+/** Highest voltage the engine runs a bank at (its bank schema's bound), V. */
+const BANK_MAX_V = 100_000;
 
 export type Figures = { annualSaving: number; netAnnual: number; paybackYears: number | null; npv: number; irr: number | null };
 
@@ -60,6 +64,11 @@ const finite = (x: number) => (Number.isFinite(x) ? x : null);
 export function bankPlanOf(spec: PlanSpec, siteServiceV: number | null): BankPlan {
   const b = spec.bank;
   const serviceVoltageV = b.serviceVoltageV ?? (b.ratedVoltageV && siteServiceV ? siteServiceV : undefined);
+  // A site may be supplied at transmission voltage; a bank does not run there, and the engine refuses it.
+  if (serviceVoltageV !== undefined && serviceVoltageV > BANK_MAX_V) {
+    const message = `The site is supplied at ${serviceVoltageV.toLocaleString('en-US')} V, above the ${BANK_MAX_V.toLocaleString('en-US')} V a bank here runs at: give the voltage of the bus the bank connects to.`;
+    throw new ApiError(400, 'invalid_input', `bank.serviceVoltageV: ${message}`, { 'bank.serviceVoltageV': message });
+  }
   if (b.kind === 'fixed') return { kind: 'fixed', kvar: b.kvar, ratedVoltageV: b.ratedVoltageV, serviceVoltageV };
   return { kind: 'switched', stepsKvar: stepsOf(b), targetPf: b.targetPf, leadingLimitPf: b.leadingLimitPf, ratedVoltageV: b.ratedVoltageV, serviceVoltageV };
 }
@@ -104,11 +113,13 @@ export function evaluatePlan(inputs: SiteInputs, spec: PlanSpec): PlanEvaluation
   let resonance: ResonanceScreen | null = null;
   let steps: ResonanceScreen[] = [];
   let rise: { risePct: number; message: string } | null = null;
-  if (site.transformerKva && site.transformerImpedancePct) {
+  // A bank whose output rounds to 0 kvar (a tiny size, or run far below its rated voltage) has no resonance to screen.
+  const screenedKvar = round(sim.effectiveKvar);
+  if (site.transformerKva && site.transformerImpedancePct && screenedKvar > 0) {
     const tx = { transformerKva: site.transformerKva, impedancePct: site.transformerImpedancePct };
-    resonance = screenResonance({ ...tx, bankKvar: round(sim.effectiveKvar) });
+    resonance = screenResonance({ ...tx, bankKvar: screenedKvar });
     if (plan.kind === 'switched') steps = screenResonanceSteps(tx, plan.stepsKvar);
-    rise = voltageRise({ ...tx, bankKvar: round(sim.effectiveKvar) });
+    rise = voltageRise({ ...tx, bankKvar: screenedKvar });
   }
   const anyNear = !!resonance?.warning || steps.some((x) => x.warning);
   const detuned = reactorPct

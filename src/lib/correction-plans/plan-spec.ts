@@ -8,12 +8,16 @@ const kvar = (what: string) =>
   z
     .number({ error: `${what} must be a number.` })
     .positive(`${what} must be greater than 0 kvar.`)
+    // Smaller than any capacitor made; a vanishing step made the switched-bank simulation divide to NaN.
+    .min(0.1, `${what} below 0.1 kvar is not a capacitor size; check the unit.`)
     .max(100_000, `${what} above 100,000 kvar is not plausible; check the unit.`);
 
 const volts = (what: string) =>
   z
     .number({ error: `${what} must be a number.` })
     .positive(`${what} must be greater than 0 V.`)
+    // Output scales by (V / Vrated)²: a rating of a few volts would make any bank infinite.
+    .min(100, `${what} below 100 V is not a capacitor or supply voltage; check the unit.`)
     .max(100_000, `${what} above 100,000 V is not plausible; check the unit.`)
     .optional();
 

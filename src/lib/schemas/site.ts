@@ -14,10 +14,11 @@ export function isTimeZone(name: string): boolean {
 
 const knownCurrencies = new Set(Intl.supportedValuesOf('currency'));
 
-const optionalPositive = (label: string, max: number, unit: string) =>
+const optionalPositive = (label: string, max: number, unit: string, min = 0) =>
   z
     .number({ error: `${label} must be a number.` })
     .positive(`${label} must be greater than 0.`)
+    .min(min, `${label} below ${min} ${unit} is not plausible; check the unit.`)
     .max(max, `${label} above ${max} ${unit} is not plausible; check the unit.`)
     .nullable()
     .optional();
@@ -32,7 +33,7 @@ export const SiteFields = {
     .meta({ description: 'IANA time zone of the meter, used for calendar months and time-of-use windows', example: 'America/Chicago' }),
   utility: z.string().trim().max(120, 'Keep the utility name under 120 characters.').default('').meta({ description: 'Utility or retailer (free text)' }),
   accountNumber: z.string().trim().max(60, 'Keep the account number under 60 characters.').default('').meta({ description: 'Utility account number (free text)' }),
-  serviceVoltageV: optionalPositive('Service voltage', 800_000, 'V').meta({ description: 'Nominal service voltage, volts (line to line)', example: 480 }),
+  serviceVoltageV: optionalPositive('Service voltage', 800_000, 'V', 100).meta({ description: 'Nominal service voltage, volts (line to line)', example: 480 }),
   transformerKva: optionalPositive('Transformer rating', 100_000, 'kVA').meta({ description: 'Supply transformer rating, kVA', example: 1500 }),
   transformerImpedancePct: z
     .number({ error: 'Transformer impedance must be a number.' })

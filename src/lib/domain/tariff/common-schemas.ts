@@ -26,7 +26,10 @@ export const pfRoundingSchema = z
 export type PfRounding = z.infer<typeof pfRoundingSchema>;
 
 // Bounds carry zod's own messages: the tariff editor turns those into its short field texts.
-const pfValue = z.number().gt(0).max(1);
+// At least 0.01, not just above 0: k = tan(acos(pf)) runs to infinity as the PF nears 0, and
+// 0 x infinity put NaN into charges. No tariff judges a PF below 0.5.
+export const PF_MIN = 0.01;
+const pfValue = z.number().min(PF_MIN).max(1);
 
 /** Largest price per unit the schemas accept: far above any tariff, so only a unit slip is refused. */
 export const RATE_MAX = 1_000_000;

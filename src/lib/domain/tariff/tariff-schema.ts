@@ -26,7 +26,14 @@ export const tariffSchema = z
     name: z.string().min(1).max(120).describe('Tariff name as the utility prints it.'),
     currency: z.string().regex(/^[A-Z]{3}$/, 'Use a three-letter ISO 4217 code such as USD.').describe('ISO 4217 currency code of every rate.'),
     effectiveFrom: isoDate.optional().describe('First local date this version applies to.'),
-    demandWindowMinutes: z.number().int().min(1).max(1440).optional().describe('Demand window in minutes (e.g. 15 or 30); absent means the meter interval.'),
+    demandWindowMinutes: z
+      .number()
+      .int()
+      .min(1)
+      .max(1440)
+      .refine((m) => 1440 % m === 0, 'The demand window must divide a day evenly: 5, 10, 15, 30 or 60 minutes, for example.')
+      .optional()
+      .describe('Demand window in minutes (e.g. 15 or 30); absent means the meter interval.'),
     demandMethod: z.enum(['block', 'rolling']).default('block').describe('block: clock-aligned fixed windows; rolling: a window ending at every meter interval.'),
     holidays: z.array(isoDate).max(MAX_HOLIDAYS, `List at most ${MAX_HOLIDAYS} holidays.`).default([]).describe('Local dates treated as holidays by time-of-use windows.'),
     rules: z.array(tariffRuleSchema).max(MAX_RULES, `A tariff version holds at most ${MAX_RULES} rules.`).describe('PF rules, evaluated in this order.'),

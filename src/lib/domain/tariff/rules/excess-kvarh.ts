@@ -1,7 +1,7 @@
 import { z } from 'zod';
 import { averagePf } from '../../power/quantities';
 import { allowanceK, allowanceText } from '../allowance';
-import { allowanceSchema, kvarhBasisSchema, ruleBaseShape, priceSchema } from '../common-schemas';
+import { allowanceSchema, kvarhBasisSchema, PF_MIN, ruleBaseShape, priceSchema } from '../common-schemas';
 import { money, num, rate } from '../format';
 import { isBelow, kvarhOnBasis } from '../pf-basis';
 import type { RuleInput, RuleOutcome } from '../rule-contract';
@@ -10,7 +10,7 @@ export const EXCESS_KVARH = 'excess-kvarh';
 
 const bandSchema = z
   .strictObject({
-    pfBelow: z.number().gt(0).max(1).describe('The band applies when the average PF is below this value.'),
+    pfBelow: z.number().min(PF_MIN).max(1).describe('The band applies when the average PF is below this value.'),
     ratePerKvarh: priceSchema().describe('Price per billable kvarh in this band.'),
   })
   .describe('PF band price.');

@@ -36,7 +36,7 @@ export const pfPercentAdjustmentRuleSchema = z
     kvarhBasis: kvarhBasisSchema.default('lagging'),
     pfRounding: pfRoundingSchema.optional(),
     thresholdPf: pfTarget.describe('PF below which the surcharge starts, e.g. 0.95.'),
-    stepPf: z.number().gt(0).max(0.1).default(0.01).describe('Size of one step of PF, usually 0.01.'),
+    stepPf: z.number().min(0.001).max(0.1).default(0.01).describe('Size of one step of PF, usually 0.01.'),
     stepRounding: stepRounding.default('up').describe('Rounding of the number of steps below the threshold (exact counts part steps).'),
     tiers: z.array(tierSchema).min(1).describe('Surcharge tiers in order from the threshold down.'),
     credit: z

@@ -13,6 +13,7 @@ import { monthlyPeriods, spanOf } from '../domain/periods/monthly-periods';
 import type { Period } from '../domain/periods/period';
 import type { IntervalSeries } from '../domain/series/interval-series';
 import { tariffSchema, type Tariff } from '../domain/tariff/tariff-schema';
+import { tariffDataProblems } from '../domain/tariff/evaluate-tariff';
 
 export type SiteInputs = {
   site: { id: string; name: string; serviceVoltageV: number | null; transformerKva: number | null; transformerImpedancePct: number | null };
@@ -30,6 +31,10 @@ export function buildSiteInputs(site: SiteDto, series: IntervalSeries, tariffs: 
     .map((t) => ({ t, p: tariffSchema.safeParse(t.definition) }))
     .filter((x) => x.p.success)
     .sort((a, b) => a.t.effectiveFrom.localeCompare(b.t.effectiveFrom));
+  // A version whose demand window is not made of whole meter intervals cannot be evaluated (the engine throws).
+  const misfits = parsed.map((x) => ({ x, problem: tariffDataProblems(x.p.data!, series)[0]?.message })).filter((m) => m.problem);
+  if (misfits.length && misfits.length === parsed.length) throw new ApiError(422, 'tariff_does_not_fit', `The tariff “${misfits.at(-1)!.x.t.name}” cannot be evaluated on this meter data: ${misfits.at(-1)!.problem}`);
+  for (const m of misfits) parsed.splice(parsed.indexOf(m.x), 1);
   if (parsed.length === 0) throw new ApiError(422, 'no_tariff', `${site.name} has no tariff entered: add the tariff’s PF rules on the Tariff page, so that savings can be computed.`);
   const span = spanOf(series);
   const lastDay = DateTime.fromMillis(span.toMs - 1, { zone: site.timeZone }).toISODate()!;
@@ -38,7 +43,8 @@ export function buildSiteInputs(site: SiteDto, series: IntervalSeries, tariffs: 
   if (!months.ok) throw new ApiError(422, 'cannot_compute', months.errors.map((e) => e.message).join(' '));
   const notes: string[] = [];
   if (parsed.length > 1) notes.push(`Evaluated with the tariff version in force at the end of the data (“${chosen.t.name}”, from ${chosen.t.effectiveFrom}) for every month.`);
-  if (tariffs.length > parsed.length) notes.push('A tariff version could not be read and was left out: fix it in the tariff editor.');
+  if (tariffs.length > parsed.length + misfits.length) notes.push('A tariff version could not be read and was left out: fix it in the tariff editor.');
+  for (const m of misfits) notes.push(`The tariff version “${m.x.t.name}” (from ${m.x.t.effectiveFrom}) was left out: ${m.problem}`);
   return {
     site: { id: site.id, name: site.name, serviceVoltageV: site.serviceVoltageV ?? null, transformerKva: site.transformerKva ?? null, transformerImpedancePct: site.transformerImpedancePct ?? null },
     series,

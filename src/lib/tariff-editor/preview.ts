@@ -13,6 +13,7 @@ import { computeFindings, type Findings, type TariffVersionInput } from '../find
 import { ApiError, notFound } from '../api/errors';
 import type { SiteDto } from '../schemas/site';
 import type { TariffVersion } from '../schemas/tariff';
+import { demandWindowMisfit } from './data-fit';
 
 export type PreviewMonth = {
   id: string;
@@ -91,6 +92,11 @@ export async function previewTariff(db: Db, organizationId: string, site: SiteDt
 
   const { fromMs, toMs } = previewRange(span.firstMs, span.lastMs, zone);
   const series = await readSeries(db, organizationId, meter, fromMs, toMs);
+  // The engine cannot read a demand window that is not made of whole meter intervals (it throws).
+  const misfit = demandWindowMisfit(draft, series.intervalMinutes);
+  if (misfit) throw new ApiError(400, 'invalid_input', `demandWindowMinutes: ${misfit}`, { demandWindowMinutes: misfit });
+  const unfit = comparison.filter((t) => demandWindowMisfit(t.definition, series.intervalMinutes));
+  comparison = comparison.filter((t) => !unfit.includes(t));
   const draftRun = run(series, zone, [{ id: 'draft', name: draft.name, effectiveFrom: '0000-01-01', definition: draft }], fromMs, toMs);
   const savedRun = comparison.length ? run(series, zone, comparison.map((t) => ({ id: t.id, name: t.name, effectiveFrom: t.effectiveFrom, definition: t.definition })), fromMs, toMs) : null;
   const savedById = new Map(savedRun?.periods.map((p) => [p.id, p.pfCharge]) ?? []);
@@ -106,6 +112,7 @@ export async function previewTariff(db: Db, organizationId: string, site: SiteDt
     rules: p.rules.map((r) => ({ ruleId: r.ruleId, ruleLabel: r.ruleLabel, amount: r.amount, status: r.status })),
   }));
   const notes = draftRun.notes.filter((n) => !n.startsWith('No tariff'));
+  for (const t of unfit) notes.push(`The saved version “${t.name}” (from ${t.effectiveFrom}) is left out of the comparison: ${demandWindowMisfit(t.definition, series.intervalMinutes)}`);
   if (months.some((m) => m.completeness < 0.98)) notes.push('Some months are not complete in the meter data; their charges cover only the intervals present.');
   if (savedRun && savedRun.currency && savedRun.currency !== draft.currency) notes.push(`The saved tariff is in ${savedRun.currency} and this draft in ${draft.currency}: the change adds them as entered.`);
   const needsInput = new Set(months.flatMap((m) => m.rules.filter((r) => r.status === 'needs-input').map((r) => r.ruleLabel)));

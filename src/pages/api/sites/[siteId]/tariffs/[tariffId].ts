@@ -7,6 +7,7 @@ import { getDb } from '@/lib/db/client';
 import { deleteTariff, findTariffFrom, getTariff, updateTariff } from '@/lib/db/tariffs';
 import { recordEvent } from '@/lib/db/audit-log';
 import { TariffVersionSchema } from '@/lib/schemas/tariff';
+import { refuseUnfitDemandWindow } from '@/lib/tariff-editor/data-fit';
 
 export const prerender = false;
 const Params = z.object({ tariffId: z.string().min(1).max(64) });
@@ -29,6 +30,7 @@ export const PUT = endpoint(async (ctx) => {
   const existing = await getTariff(db, workspace.id, site.id, tariffId);
   if (!existing) throw notFound('Tariff');
   const t = await readJson(ctx.request, TariffVersionSchema);
+  await refuseUnfitDemandWindow(db, workspace.id, site.id, t);
   const clash = await findTariffFrom(db, workspace.id, site.id, t.effectiveFrom);
   if (clash && clash.id !== tariffId) throw new ApiError(409, 'duplicate_version', `Another tariff version already starts on ${t.effectiveFrom}.`, { effectiveFrom: 'Already used by another version.' });
   const updated = await updateTariff(db, workspace.id, site.id, tariffId, t);

@@ -6,6 +6,7 @@ import { getDb } from '@/lib/db/client';
 import { createTariff, findTariffFrom, listTariffs } from '@/lib/db/tariffs';
 import { recordEvent } from '@/lib/db/audit-log';
 import { TariffVersionSchema } from '@/lib/schemas/tariff';
+import { refuseUnfitDemandWindow } from '@/lib/tariff-editor/data-fit';
 
 export const prerender = false;
 
@@ -22,6 +23,7 @@ export const POST = endpoint(async (ctx) => {
   const site = await siteInWorkspace(ctx.params, workspace.id);
   const t = await readJson(ctx.request, TariffVersionSchema);
   const db = getDb();
+  await refuseUnfitDemandWindow(db, workspace.id, site.id, t);
   if (await findTariffFrom(db, workspace.id, site.id, t.effectiveFrom)) {
     throw new ApiError(409, 'duplicate_version', `A tariff version already starts on ${t.effectiveFrom}. Edit that version or choose another date.`, { effectiveFrom: 'Already used by another version.' });
   }

@@ -14,6 +14,7 @@ import { BillMappingSchema } from '@/lib/import/bills/bill-schema';
 import { routeKey, SIGNED_BODY_ROUTES, VALID_BODIES, validBillMapping, validMeterMapping } from './examples';
 import { edgeValue, mutated } from './mutate';
 import { shapeOf } from './schema-probe';
+import { fromSchema } from './from-schema';
 
 // FUZZ_RUNS and FUZZ_SEED explore further by hand; CI runs the fixed default.
 const RUNS = Number(process.env.FUZZ_RUNS ?? 300);
@@ -66,6 +67,7 @@ const queryValue = fc.oneof(edgeValue.map(String), fc.string({ maxLength: 20 }),
 describe.each(SCHEMAS.map((e) => [e.name, e] as const))('%s', (_name, e) => {
   it('any JS value: no throw, a refusal names a field', () => check(`${e.name} anything`, anything, (v) => holds(e, v)));
   it('any JSON value: no throw, a refusal names a field', () => check(`${e.name} json`, fc.jsonValue({ maxDepth: 5 }), (v) => holds(e, v)));
+  it('values generated from the schema itself: no throw, a refusal names a field', () => check(`${e.name} generated`, fromSchema(e.schema), (v) => holds(e, v)));
   if (e.valid) {
     it('the valid example is accepted', () => expect(e.schema.safeParse(e.valid!()).success).toBe(true));
     it('a mutated valid example: no throw, a refusal names a field', () => check(`${e.name} mutated`, mutated(e.valid!), (v) => holds(e, v)));

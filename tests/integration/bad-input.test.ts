@@ -208,6 +208,10 @@ function outOfRangeCases(): Case[] {
     ['an impossible start date', { ...t(), effectiveFrom: '2025-02-30' }, 'effectiveFrom'],
     ['an impossible holiday', { ...t(), holidays: ['2025-13-01'] }, 'holidays.0'],
     ['51 rules', { ...t(), rules: Array.from({ length: 51 }, (_, i) => ({ type: 'leading-kvarh', id: `l${i}`, ratePerKvarh: 0.01 })) }, 'rules'],
+    ['an allowance PF of 0.001 (k runs to infinity)', withRule(1, { allowance: { basis: 'pf', pf: 0.001 } }), 'rules.1.allowance.pf'],
+    ['a PF step of 0.0001', withRule(2, { stepPf: 0.0001 }), 'rules.2.stepPf'],
+    ['a 50-minute demand window (does not divide a day)', { ...t(), demandWindowMinutes: 50 }, 'demandWindowMinutes'],
+    ['a 5-minute demand window on the site’s 15-minute data', { ...t(), demandWindowMinutes: 5 }, 'demandWindowMinutes'],
   ];
   const p = validPlan;
   const planBad: [string, unknown, string][] = [
@@ -222,6 +226,8 @@ function outOfRangeCases(): Case[] {
     ['a life of 0 years', { ...p(), finance: { discountRate: 0.08, lifeYears: 0 } }, 'finance.lifeYears'],
     ['a negative cost per kvar', { ...p(), costs: { ...p().costs, perKvar: -1 } }, 'costs.perKvar'],
     ['O&M of 500 % of capex', { ...p(), costs: { ...p().costs, omPctOfCapex: 500 } }, 'costs.omPctOfCapex'],
+    ['a 0.05 kvar bank (below any capacitor)', { ...p(), bank: { kind: 'fixed', kvar: 0.05 } }, 'bank.kvar'],
+    ['a rated voltage of 5 V', { ...p(), bank: { kind: 'fixed', kvar: 150, ratedVoltageV: 5 } }, 'bank.ratedVoltageV'],
   ];
   const cases: Case[] = [];
   for (const r of tariffRoutes) for (const [name, body, field] of tariffBad) cases.push({ route: routeKey(r), name: `${name} -> 400 naming ${field}`, run: async (x) => expectError(await send(x, r, JSON.stringify(body)), 400, { code: 'invalid_input', field }) });
@@ -232,7 +238,7 @@ function outOfRangeCases(): Case[] {
     cases.push({ route: routeKey(bills), name: `bill with ${name} -> 400 naming ${field}`, run: async (x) => expectError(await send(x, bills, JSON.stringify({ ...bill(), ...patch })), 400, { code: 'invalid_input', field }) });
   }
   const site = route('post', '/api/sites');
-  for (const [name, patch, field] of [['transformer impedance 500 %', { transformerImpedancePct: 500 }, 'transformerImpedancePct'], ['a negative service voltage', { serviceVoltageV: -480 }, 'serviceVoltageV'], ['an unknown time zone', { timeZone: 'Mars/Olympus' }, 'timeZone']] as const) {
+  for (const [name, patch, field] of [['transformer impedance 500 %', { transformerImpedancePct: 500 }, 'transformerImpedancePct'], ['a negative service voltage', { serviceVoltageV: -480 }, 'serviceVoltageV'], ['an unknown time zone', { timeZone: 'Mars/Olympus' }, 'timeZone'], ['a service voltage of 5 V', { serviceVoltageV: 5 }, 'serviceVoltageV']] as const) {
     cases.push({ route: routeKey(site), name: `site with ${name} -> 400 naming ${field}`, run: async (x) => expectError(await send(x, site, JSON.stringify({ ...VALID_BODIES[routeKey(site)]!(), ...patch })), 400, { code: 'invalid_input', field }) });
   }
   const sizing = route('get', '/api/sites/{siteId}/plans/sizing');
@@ -289,5 +295,34 @@ afterAll(async () => {
 describe.each([...ROUTES_COVERED])('%s', (route) => {
   it.each(CASES.filter((c) => c.route === route).map((c) => [c.name, c] as const))('%s', async (_name, c) => {
     await c.run(ctx);
+  });
+});
+
+/** Valid input that used to answer 500, found by the fuzz runs; each is answered now. */
+describe('regressions from the fuzz runs', () => {
+  it('a rule id named like an Object.prototype member ("constructor", "valueOf") previews: 200, was a TypeError', async () => {
+    const body = { ...validTariff(), rules: [{ type: 'leading-kvarh', id: 'constructor', ratePerKvarh: 0.05 }, { type: 'excess-kvar-demand', id: 'valueOf', allowance: { basis: 'ratio', kvarPerKw: 0.33 }, ratePerKvar: 8 }] };
+    const r = await ctx.c.post(`/api/sites/${ctx.ids.siteId}/tariffs/preview`, body);
+    expect(r.status, JSON.stringify(r.json)).toBe(200);
+    expect(r.json.preview.byRule.map((x: { ruleId: string }) => x.ruleId)).toEqual(['constructor', 'valueOf']);
+  });
+  it('a site supplied above 100 kV with a bank given only its rated voltage: 400 naming bank.serviceVoltageV, was a ZodError about a field not sent', async () => {
+    const site = `/api/sites/${ctx.ids.siteId}`;
+    expect((await ctx.c.patch(site, { serviceVoltageV: 230_000, transformerKva: 1500, transformerImpedancePct: 5.75 })).status).toBe(200);
+    try {
+      const r = await ctx.c.post(`${site}/plans/evaluate`, { ...validPlan(), bank: { kind: 'fixed', kvar: 150, ratedVoltageV: 480 } });
+      expectError(r, 400, { code: 'invalid_input', field: 'bank.serviceVoltageV' });
+      const ok = await ctx.c.post(`${site}/plans/evaluate`, { ...validPlan(), bank: { kind: 'fixed', kvar: 150, ratedVoltageV: 480, serviceVoltageV: 480 } });
+      expect(ok.status, JSON.stringify(ok.json)).toBe(200);
+    } finally {
+      await ctx.c.patch(site, { serviceVoltageV: null });
+    }
+  });
+  it('a bank that rounds to 0 kvar at its service voltage is evaluated (no resonance screen), was a RangeError', async () => {
+    const site = `/api/sites/${ctx.ids.siteId}`;
+    expect((await ctx.c.patch(site, { transformerKva: 1500, transformerImpedancePct: 5.75 })).status).toBe(200);
+    const r = await ctx.c.post(`${site}/plans/evaluate`, { ...validPlan(), bank: { kind: 'fixed', kvar: 0.1, ratedVoltageV: 100_000, serviceVoltageV: 100 } });
+    expect(r.status, JSON.stringify(r.json)).toBe(200);
+    expect(r.json.evaluation.screening.resonance).toBeNull();
   });
 });

@@ -20,7 +20,7 @@ import { ApiError } from '@/lib/api/errors';
 import { validPlan, validTariff } from './examples';
 
 // FUZZ_RUNS and FUZZ_SEED explore further by hand; CI runs the fixed default.
-const RUNS = Number(process.env.FUZZ_RUNS ?? 60);
+const RUNS = Number(process.env.FUZZ_RUNS ?? 100);
 const SEED = Number(process.env.FUZZ_SEED ?? 0);
 let total = 0;
 afterAll(() => console.log(`fuzz-engine: ${total} runs`));

@@ -25,10 +25,11 @@ export const notFound = (what: string) => new ApiError(404, 'not_found', `${what
 
 /** Turns zod issues into `{ "path.to.field": "message" }` and one readable sentence. */
 export function fromZod(error: z.ZodError, where = 'body'): ApiError {
-  const fields: Record<string, string> = {};
+  // A null-prototype map: a field named like an Object member (constructor, __proto__) is still named.
+  const fields: Record<string, string> = Object.create(null);
   for (const issue of error.issues) {
     const keys = issue.code === 'unrecognized_keys' ? issue.keys.map((k) => [...issue.path, k].join('.')) : [issue.path.join('.') || where];
-    for (const key of keys) fields[key] ??= issue.code === 'unrecognized_keys' ? 'Unknown field: remove it.' : issue.message;
+    for (const key of keys) if (!Object.hasOwn(fields, key)) fields[key] = issue.code === 'unrecognized_keys' ? 'Unknown field: remove it.' : issue.message;
   }
   const first = Object.entries(fields)[0];
   const message = first ? `${first[0]}: ${first[1]}` : 'The request is not valid.';

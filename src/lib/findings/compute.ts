@@ -10,6 +10,7 @@ import { billingPeriods, type BillingRange } from '../domain/periods/billing-per
 import type { Period } from '../domain/periods/period';
 import type { RuleResult } from '../domain/tariff/evaluate-tariff';
 import { evaluateTariffVersions } from '../domain/tariff/evaluate-versions';
+import { tariffDataProblems } from '../domain/tariff/evaluate-tariff';
 import { tariffSchema, type Tariff } from '../domain/tariff/tariff-schema';
 import type { IntervalSeries } from '../domain/series/interval-series';
 
@@ -66,8 +67,13 @@ export function computeFindings(input: FindingsInput): FindingsOutcome {
   const versions = [] as (TariffVersionInput & { parsed: Tariff })[];
   for (const t of input.tariffs) {
     const parsed = tariffSchema.safeParse(t.definition);
-    if (parsed.success) versions.push({ ...t, parsed: parsed.data });
-    else notes.push(`Tariff version "${t.name}" from ${t.effectiveFrom} could not be read and was left out: fix it in the tariff editor.`);
+    if (!parsed.success) notes.push(`Tariff version "${t.name}" from ${t.effectiveFrom} could not be read and was left out: fix it in the tariff editor.`);
+    else {
+      // A version saved before coarser data arrived (a 5-minute demand window on 15-minute data) cannot be read on it.
+      const misfit = series.length ? tariffDataProblems(parsed.data, series)[0] : undefined;
+      if (misfit) notes.push(`Tariff version "${t.name}" from ${t.effectiveFrom} was left out: ${misfit.message}`);
+      else versions.push({ ...t, parsed: parsed.data });
+    }
   }
   versions.sort((a, b) => a.effectiveFrom.localeCompare(b.effectiveFrom));
 

@@ -5,19 +5,14 @@
  * GET /findings on the stored year (the packed day-block layout). Prints figures, asserts nothing.
  * Run: npm run build && npx tsx src/scripts/bench-import-http.ts
  */
-import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
-import { tmpdir } from 'node:os';
+import { readFileSync, rmSync } from 'node:fs';
 import { join } from 'node:path';
-import { createServer } from 'node:net';
 import { Readable } from 'node:stream';
 import Papa from 'papaparse';
-import { openDb } from '../lib/db/client';
-import { applyMigrations } from '../lib/db/migrate';
-import { seedDemo } from '../lib/demo/seed';
 import { DEMO_PASSWORD } from '../lib/demo/scenario';
 import { startAppServer } from './lib/app-server';
+import { freePort, freshDemoDatabase } from './lib/fresh-database';
 
-const freePort = () => new Promise<number>((res) => { const s = createServer(); s.listen(0, '127.0.0.1', () => { const p = (s.address() as { port: number }).port; s.close(() => res(p)); }); });
 
 function makeCsv(intervalMinutes: number): { text: string; rows: number } {
   const rows = (365 * 1440) / intervalMinutes;
@@ -44,13 +39,7 @@ function rssKb(pid: number, field: 'VmRSS' | 'VmHWM'): number {
   return m ? Number(m[1]) : NaN;
 }
 
-const dir = mkdtempSync(join(tmpdir(), 'varledger-bench-'));
-const url = `file:${join(dir, 'bench.db')}`;
-const { db, ready } = openDb(url);
-await ready;
-await applyMigrations(db);
-await seedDemo(db);
-db.$client.close();
+const { dataDir: dir, databaseUrl: url } = await freshDemoDatabase('varledger-bench', 'bench');
 const port = await freePort();
 const base = `http://127.0.0.1:${port}`;
 const app = await startAppServer({ HOST: '127.0.0.1', PORT: String(port), APP_URL: base, DATABASE_URL: url, DATA_DIR: dir, MAIL_SINK: 'off', NODE_ENV: 'test' }, { quiet: true });

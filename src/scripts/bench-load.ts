@@ -9,17 +9,15 @@
  * because it depends on the machine. Run: VARLEDGER_DIST=... npx tsx src/scripts/bench-load.ts
  * (after a build), or `npm run bench` for every bench.
  */
-import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
-import { loadavg, tmpdir } from 'node:os';
+import { readFileSync, rmSync } from 'node:fs';
+import { loadavg } from 'node:os';
 import { join } from 'node:path';
-import { createServer } from 'node:net';
 import { spawnSync } from 'node:child_process';
 import autocannon from 'autocannon';
 import { openDb } from '../lib/db/client';
-import { applyMigrations } from '../lib/db/migrate';
-import { seedDemo } from '../lib/demo/seed';
 import { DEMO_PASSWORD } from '../lib/demo/scenario';
 import { startAppServer } from './lib/app-server';
+import { freePort, freshDemoDatabase } from './lib/fresh-database';
 
 const CONNECTIONS = Number(process.env.BENCH_LOAD_CONNECTIONS ?? 50);
 const DURATION_S = Number(process.env.BENCH_LOAD_SECONDS ?? 20);
@@ -28,7 +26,6 @@ const ROWS = 35_040; // 365 days x 96 quarter-hours
 const GOAL_P95_MS = 100;
 const REFERENCE_S = 5;
 
-const freePort = () => new Promise<number>((res) => { const s = createServer(); s.listen(0, '127.0.0.1', () => { const p = (s.address() as { port: number }).port; s.close(() => res(p)); }); });
 const load = () => loadavg().map((x) => x.toFixed(2)).join(' / ');
 const rssMb = (pid: number, field: 'VmRSS' | 'VmHWM') => Number(readFileSync(`/proc/${pid}/status`, 'utf8').match(new RegExp(`${field}:\\s+(\\d+)`))?.[1] ?? NaN) / 1024;
 const CLK_TCK = Number(spawnSync('getconf', ['CLK_TCK'], { encoding: 'utf8' }).stdout.trim()) || 100;
@@ -76,15 +73,7 @@ const check = (ok: boolean, what: string) => {
   return ok;
 };
 
-const dir = mkdtempSync(join(tmpdir(), 'varledger-load-'));
-const dbUrl = `file:${join(dir, 'load.db')}`;
-{
-  const { db, ready } = openDb(dbUrl);
-  await ready;
-  await applyMigrations(db);
-  await seedDemo(db);
-  db.$client.close();
-}
+const { dataDir: dir, databaseUrl: dbUrl } = await freshDemoDatabase('varledger-load', 'load');
 const port = await freePort();
 const base = `http://127.0.0.1:${port}`;
 const app = await startAppServer({ HOST: '127.0.0.1', PORT: String(port), APP_URL: base, DATABASE_URL: dbUrl, DATA_DIR: dir, MAIL_SINK: 'off', PAYMENT_FAKE: 'off', NODE_ENV: 'production' }, { quiet: true });

@@ -6,15 +6,11 @@
  * and the cookie and header rules of RFC 6265bis (__Secure- prefix) and the CSP Level 3 spec.
  */
 import { afterAll, beforeAll, describe, expect, it, inject } from 'vitest';
-import { mkdtempSync, readdirSync, readFileSync, rmSync, statSync } from 'node:fs';
+import { readdirSync, readFileSync, rmSync, statSync } from 'node:fs';
 import { request as httpRequest } from 'node:http';
-import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { openDb } from '../../src/lib/db/client';
-import { applyMigrations } from '../../src/lib/db/migrate';
-import { seedDemo } from '../../src/lib/demo/seed';
 import { ENTRY, startAppServer, type AppServer } from '../../src/scripts/lib/app-server';
-import { freePort } from '../support/global-setup';
+import { freePort, freshDemoDatabase } from '../../src/scripts/lib/fresh-database';
 import { as, Client, DEMO } from '../support/http';
 import { uploadFile } from '../support/upload';
 import { TEST_PAYMENT_KEYS } from '../support/payment-keys';
@@ -46,13 +42,9 @@ describe('production mode (NODE_ENV=production, public URL https://varledger.tes
   let dir: string;
 
   beforeAll(async () => {
-    dir = mkdtempSync(join(tmpdir(), 'varledger-prod-'));
-    const databaseUrl = `file:${join(dir, 'prod.db')}`;
-    const { db, ready } = openDb(databaseUrl);
-    await ready;
-    await applyMigrations(db);
-    await seedDemo(db);
-    db.$client.close();
+    const fresh = await freshDemoDatabase('varledger-prod', 'prod');
+    dir = fresh.dataDir;
+    const databaseUrl = fresh.databaseUrl;
     const port = await freePort();
     server = await startAppServer(
       { NODE_ENV: 'production', TEST: 'false', VITEST: '', HOST: '127.0.0.1', PORT: String(port), APP_URL: PUBLIC_URL, DATABASE_URL: databaseUrl, DATA_DIR: dir, AUTH_SECRET: 'a-production-like-secret-of-48-characters-000000', SMTP_PORT: String(await freePort()), STRIPE_SECRET_KEY: TEST_PAYMENT_KEYS.secretKey, STRIPE_WEBHOOK_SECRET: TEST_PAYMENT_KEYS.webhookSecret, STRIPE_API_BASE: 'http://127.0.0.1:9' },

@@ -3,15 +3,10 @@
  * seeded with the demo people), a fixed port so it can be killed and started again on the
  * same database, and whatever SMTP port and payment API the test points it at.
  */
-import { mkdtempSync, rmSync } from 'node:fs';
-import { tmpdir } from 'node:os';
-import { join } from 'node:path';
+import { rmSync } from 'node:fs';
 import { createClient, type Client as SqlClient } from '@libsql/client';
-import { openDb } from '../../src/lib/db/client';
-import { applyMigrations } from '../../src/lib/db/migrate';
-import { seedDemo } from '../../src/lib/demo/seed';
 import { startAppServer, type AppServer } from '../../src/scripts/lib/app-server';
-import { freePort } from './global-setup';
+import { freePort, freshDemoDatabase } from '../../src/scripts/lib/fresh-database';
 import { Client, DEMO } from './http';
 import { TEST_PAYMENT_KEYS } from './payment-keys';
 
@@ -35,13 +30,7 @@ export type Rig = {
 };
 
 export async function startRig(opts: { smtpPort: number; paymentApi?: string; env?: Record<string, string> }): Promise<Rig> {
-  const dataDir = mkdtempSync(join(tmpdir(), 'varledger-faults-'));
-  const databaseUrl = `file:${join(dataDir, 'faults.db')}`;
-  const { db, ready } = openDb(databaseUrl);
-  await ready;
-  await applyMigrations(db);
-  await seedDemo(db);
-  db.$client.close();
+  const { dataDir, databaseUrl } = await freshDemoDatabase('varledger-faults', 'faults');
   const port = await freePort();
   const baseUrl = `http://127.0.0.1:${port}`;
   const env = {

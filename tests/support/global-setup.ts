@@ -6,7 +6,7 @@ import type { TestProject } from 'vitest/node';
 import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { createServer } from 'node:net';
+import { freePort } from '../../src/scripts/lib/fresh-database';
 import { openDb } from '../../src/lib/db/client';
 import { applyMigrations } from '../../src/lib/db/migrate';
 import { seedDemo } from '../../src/lib/demo/seed';
@@ -29,16 +29,7 @@ declare module 'vitest' {
   }
 }
 
-export function freePort(): Promise<number> {
-  return new Promise((resolve, reject) => {
-    const s = createServer();
-    s.once('error', reject);
-    s.listen(0, '127.0.0.1', () => {
-      const { port } = s.address() as { port: number };
-      s.close(() => resolve(port));
-    });
-  });
-}
+export { freePort };
 
 export default async function setup(project: TestProject) {
   const dataDir = mkdtempSync(join(tmpdir(), 'varledger-test-'));

@@ -259,6 +259,22 @@ describe('SQLite busy: another writer holds the lock', () => {
     held();
   }, BUSY_WINDOW_MS + 30_000);
 
+  it('a sign-in locked out past the busy window answers 503 in our JSON shape with Retry-After, then signs in', async () => {
+    const lock = await holdWriteLock(sql);
+    let r;
+    try {
+      r = await rig.anonymous().post('/api/auth/sign-in/email', { email: DEMO.owner, password: DEMO.password });
+    } finally {
+      await lock.release();
+    }
+    expect(r.status).toBe(503);
+    expect(r.json.error.code).toBe('busy');
+    expect(r.json.error.message).toMatch(/try again/i);
+    expect(Number(r.res.headers.get('retry-after'))).toBeGreaterThan(0);
+    expect((await rig.anonymous().post('/api/auth/sign-in/email', { email: DEMO.owner, password: DEMO.password })).status).toBe(200);
+    held();
+  }, BUSY_WINDOW_MS + 30_000);
+
   it('a meter upload locked out answers 503, leaves no interval or half-done import, and imports afterwards', async () => {
     const siteId = await newSite(energy, 'Ropewalk depot yard');
     const path = `/api/sites/${siteId}/meter-data`;

@@ -26,6 +26,7 @@ export default function SignInForm({ next }: { next?: string }) {
     if (error) {
       if (error.code === 'EMAIL_NOT_VERIFIED') return setErrors({ form: 'Confirm your e-mail address first: we have just sent you a new link.' });
       if (error.status === 429) return setErrors({ form: 'Too many attempts. Wait a minute and try again.' });
+      if ((error.status ?? 0) >= 500) return setErrors({ form: 'The server could not sign you in just now; nothing was changed. Try again in a moment.' });
       return setErrors({ form: 'That e-mail and password do not match an account.' });
     }
     window.location.assign(safeNext(next));

@@ -253,9 +253,12 @@ describe('SQLite busy: another writer holds the lock', () => {
     expect(Number(r.res.headers.get('retry-after'))).toBeGreaterThan(0);
     const rows = await sql.execute({ sql: 'SELECT count(*) AS n FROM site WHERE name = ?', args: ['Ropewalk depot'] });
     expect(Number(rows.rows[0]!.n)).toBe(0);
-    // Once the other writer is done, the same request goes through.
+    const events = async () => Number((await sql.execute({ sql: "SELECT count(*) AS n FROM audit_event WHERE action = 'site.created' AND detail LIKE ?", args: ['%Ropewalk depot%'] })).rows[0]!.n);
+    expect(await events(), 'no activity entry for a site that was not saved').toBe(0);
+    // Once the other writer is done, the same request goes through, with its one activity entry.
     const retry = await energy.post('/api/sites', { name: 'Ropewalk depot', timeZone: 'UTC' });
     expect(retry.status).toBe(201);
+    expect(await events()).toBe(1);
     held();
   }, BUSY_WINDOW_MS + 30_000);
 

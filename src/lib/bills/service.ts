@@ -4,7 +4,7 @@ import { bill } from '../db/schema';
 import { billValues, listBills, overlappingBills, setBillDocument, type BillRow } from '../db/bills';
 import { addStoredFile, findStoredFile } from '../db/meter-imports';
 import { listMeters } from '../db/intervals';
-import { recordEvent } from '../db/audit-log';
+import { atomically, recordEvent } from '../db/audit-log';
 import { ApiError, fromZod } from '../api/errors';
 import { readMultipart } from '../files/multipart';
 import { commitToStore, discardTemp, openStored } from '../files/store';
@@ -26,9 +26,11 @@ function overlapError(b: { periodStart: string; periodEnd: string }, clash: Bill
 export async function addBill({ db, organizationId, site, userId }: Ctx, b: BillDeterminants) {
   const [clash] = await overlappingBills(db, organizationId, site.id, b.periodStart, b.periodEnd);
   if (clash) throw overlapError(b, clash);
-  const [row] = await db.insert(bill).values(billValues(organizationId, site.id, b, 'form', site.currency, userId)).returning();
-  await recordEvent(db, organizationId, userId, { action: 'bill.added', subjectType: 'bill', subjectId: row!.id, detail: { siteId: site.id, periodStart: b.periodStart, periodEnd: b.periodEnd } });
-  return row!;
+  return atomically(db, async (tx) => {
+    const [row] = await tx.insert(bill).values(billValues(organizationId, site.id, b, 'form', site.currency, userId)).returning();
+    await recordEvent(tx, organizationId, userId, { action: 'bill.added', subjectType: 'bill', subjectId: row!.id, detail: { siteId: site.id, periodStart: b.periodStart, periodEnd: b.periodEnd } });
+    return row!;
+  });
 }
 
 /** Imports a bill-history CSV: every row valid and no overlap, or nothing is written. */
@@ -88,8 +90,10 @@ export async function attachDocument(ctx: Ctx, billRow: BillRow, request: Reques
     if (!type) throw new ApiError(415, 'unsupported_type', `"${sanitizeFileName(file.fileName)}" is not a PDF, PNG or JPEG file (checked by its content, not its name). Scan or save the bill in one of those formats.`);
     await commitToStore(file);
     const stored = (await findStoredFile(db, organizationId, site.id, 'bill-document', file.sha256)) ?? (await addStoredFile(db, { organizationId, siteId: site.id, kind: 'bill-document', sha256: file.sha256, fileName: sanitizeFileName(file.fileName, `bill.${type.ext}`), contentType: type.mime, bytes: file.bytes, createdBy: userId }));
-    await setBillDocument(db, organizationId, billRow.id, stored.id);
-    await recordEvent(db, organizationId, userId, { action: 'bill.document_attached', subjectType: 'bill', subjectId: billRow.id, detail: { fileName: stored.fileName, bytes: stored.bytes } });
+    await atomically(db, async (tx) => {
+      await setBillDocument(tx, organizationId, billRow.id, stored.id);
+      await recordEvent(tx, organizationId, userId, { action: 'bill.document_attached', subjectType: 'bill', subjectId: billRow.id, detail: { siteId: site.id, fileName: stored.fileName, bytes: stored.bytes } });
+    });
     return stored;
   } finally {
     if (file) await discardTemp(file).catch(() => undefined);

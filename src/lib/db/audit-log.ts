@@ -13,3 +13,8 @@ export async function recordEvent(db: Db, organizationId: string, actorUserId: s
 export async function listEvents(db: Db, organizationId: string, limit = 200) {
   return db.select().from(auditEvent).where(eq(auditEvent.organizationId, organizationId)).orderBy(desc(auditEvent.createdAt)).limit(limit);
 }
+
+/** Runs a change and its audit entry in one write transaction: both are written or neither. */
+export function atomically<T>(db: Db, fn: (tx: Db) => Promise<T>): Promise<T> {
+  return db.transaction((tx) => fn(tx as unknown as Db));
+}

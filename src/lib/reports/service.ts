@@ -60,8 +60,8 @@ export async function issueReport(db: Db, ctx: { organizationId: string; workspa
   await db.transaction(async (tx) => {
     await tx.insert(savingsReport).values({ id, organizationId, siteId: site.id, planId: plan.id, title, snapshot: snapshot as unknown as Record<string, unknown>, issuedBy: user.id, ...(ctx.now ? { issuedAt: ctx.now } : {}) });
     await tx.update(siteTable).set({ auditState: 'reported', updatedAt: new Date() }).where(and(eq(siteTable.organizationId, organizationId), eq(siteTable.id, site.id)));
+    await recordEvent(tx as unknown as Db, organizationId, user.id, { action: 'report.issued', subjectType: 'savings_report', subjectId: id, detail: { siteId: site.id, planId: plan.id, title } });
   });
-  await recordEvent(db, organizationId, user.id, { action: 'report.issued', subjectType: 'savings_report', subjectId: id, detail: { siteId: site.id, planId: plan.id, title } });
   // Finance members get a link; sending is retried and logged by the mailer.
   const base = getConfig().baseUrl;
   const finance = ctx.notify === false ? [] : (await listMembers(db, organizationId)).filter((m) => m.role === 'finance');

@@ -3,7 +3,7 @@ import { ApiError, json } from '@/lib/api/errors';
 import { requirePermission } from '@/lib/auth/guards';
 import { getDb } from '@/lib/db/client';
 import { createSite, findSiteByName, listSites } from '@/lib/db/sites';
-import { recordEvent } from '@/lib/db/audit-log';
+import { atomically, recordEvent } from '@/lib/db/audit-log';
 import { SiteCreateSchema } from '@/lib/schemas/site';
 
 export const prerender = false;
@@ -20,7 +20,10 @@ export const POST = endpoint(async (ctx) => {
   if (await findSiteByName(db, workspace.id, input.name)) {
     throw new ApiError(409, 'duplicate_name', `A site named "${input.name}" already exists in this workspace. Choose another name.`, { name: 'Already used by another site.' });
   }
-  const site = await createSite(db, workspace.id, input);
-  await recordEvent(db, workspace.id, user.id, { action: 'site.created', subjectType: 'site', subjectId: site.id, detail: { name: site.name } });
+  const site = await atomically(db, async (tx) => {
+    const created = await createSite(tx, workspace.id, input);
+    await recordEvent(tx, workspace.id, user.id, { action: 'site.created', subjectType: 'site', subjectId: created.id, detail: { name: created.name } });
+    return created;
+  });
   return json({ site }, 201);
 });

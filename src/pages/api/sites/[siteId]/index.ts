@@ -3,7 +3,7 @@ import { ApiError, json, notFound } from '@/lib/api/errors';
 import { requirePermission } from '@/lib/auth/guards';
 import { getDb } from '@/lib/db/client';
 import { deleteSite, findSiteByName, getSite, updateSite } from '@/lib/db/sites';
-import { recordEvent } from '@/lib/db/audit-log';
+import { atomically, recordEvent } from '@/lib/db/audit-log';
 import { SiteIdParams, SiteUpdateSchema } from '@/lib/schemas/site';
 
 export const prerender = false;
@@ -26,9 +26,12 @@ export const PATCH = endpoint(async (ctx) => {
   if (patch.name && patch.name !== existing.name && (await findSiteByName(db, workspace.id, patch.name))) {
     throw new ApiError(409, 'duplicate_name', `A site named "${patch.name}" already exists in this workspace. Choose another name.`, { name: 'Already used by another site.' });
   }
-  const site = await updateSite(db, workspace.id, siteId, patch);
+  const site = await atomically(db, async (tx) => {
+    const updated = await updateSite(tx, workspace.id, siteId, patch);
+    if (updated) await recordEvent(tx, workspace.id, user.id, { action: 'site.updated', subjectType: 'site', subjectId: siteId, detail: { fields: Object.keys(patch) } });
+    return updated;
+  });
   if (!site) throw notFound('Site');
-  await recordEvent(db, workspace.id, user.id, { action: 'site.updated', subjectType: 'site', subjectId: siteId, detail: { fields: Object.keys(patch) } });
   return json({ site });
 });
 
@@ -37,7 +40,12 @@ export const DELETE = endpoint(async (ctx) => {
   const { siteId } = readParams(ctx.params, SiteIdParams);
   const db = getDb();
   const existing = await getSite(db, workspace.id, siteId);
-  if (!existing || !(await deleteSite(db, workspace.id, siteId))) throw notFound('Site');
-  await recordEvent(db, workspace.id, user.id, { action: 'site.deleted', subjectType: 'site', subjectId: siteId, detail: { name: existing.name } });
+  if (!existing) throw notFound('Site');
+  const deleted = await atomically(db, async (tx) => {
+    if (!(await deleteSite(tx, workspace.id, siteId))) return false;
+    await recordEvent(tx, workspace.id, user.id, { action: 'site.deleted', subjectType: 'site', subjectId: siteId, detail: { name: existing.name } });
+    return true;
+  });
+  if (!deleted) throw notFound('Site');
   return new Response(null, { status: 204 });
 });

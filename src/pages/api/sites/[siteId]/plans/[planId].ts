@@ -4,7 +4,7 @@ import { json, notFound } from '@/lib/api/errors';
 import { requirePermission } from '@/lib/auth/guards';
 import { siteInWorkspace } from '@/lib/api/site-scope';
 import { getDb } from '@/lib/db/client';
-import { recordEvent } from '@/lib/db/audit-log';
+import { atomically, recordEvent } from '@/lib/db/audit-log';
 import { PlanSpecSchema } from '@/lib/correction-plans/plan-spec';
 import { deletePlan, getPlan } from '@/lib/correction-plans/plans-store';
 import { replacePlan } from '@/lib/correction-plans/service';
@@ -36,7 +36,12 @@ export const DELETE = endpoint(async (ctx) => {
   const { planId } = readParams(ctx.params, Params);
   const db = getDb();
   const existing = await getPlan(db, workspace.id, site.id, planId);
-  if (!existing || !(await deletePlan(db, workspace.id, site.id, planId))) throw notFound('Plan');
-  await recordEvent(db, workspace.id, user.id, { action: 'plan.deleted', subjectType: 'correction_plan', subjectId: planId, detail: { siteId: site.id, name: existing.name } });
+  if (!existing) throw notFound('Plan');
+  const deleted = await atomically(db, async (tx) => {
+    if (!(await deletePlan(tx, workspace.id, site.id, planId))) return false;
+    await recordEvent(tx, workspace.id, user.id, { action: 'plan.deleted', subjectType: 'correction_plan', subjectId: planId, detail: { siteId: site.id, name: existing.name } });
+    return true;
+  });
+  if (!deleted) throw notFound('Plan');
   return new Response(null, { status: 204 });
 });

@@ -5,7 +5,7 @@ import { requirePermission } from '@/lib/auth/guards';
 import { siteInWorkspace } from '@/lib/api/site-scope';
 import { getDb } from '@/lib/db/client';
 import { deleteTariff, findTariffFrom, getTariff, updateTariff } from '@/lib/db/tariffs';
-import { recordEvent } from '@/lib/db/audit-log';
+import { atomically, recordEvent } from '@/lib/db/audit-log';
 import { TariffVersionSchema } from '@/lib/schemas/tariff';
 import { refuseUnfitDemandWindow } from '@/lib/tariff-editor/data-fit';
 
@@ -33,8 +33,11 @@ export const PUT = endpoint(async (ctx) => {
   await refuseUnfitDemandWindow(db, workspace.id, site.id, t);
   const clash = await findTariffFrom(db, workspace.id, site.id, t.effectiveFrom);
   if (clash && clash.id !== tariffId) throw new ApiError(409, 'duplicate_version', `Another tariff version already starts on ${t.effectiveFrom}.`, { effectiveFrom: 'Already used by another version.' });
-  const updated = await updateTariff(db, workspace.id, site.id, tariffId, t);
-  await recordEvent(db, workspace.id, user.id, { action: 'tariff.updated', subjectType: 'tariff', subjectId: tariffId, detail: { siteId: site.id, before: existing.definition, after: t } });
+  const updated = await atomically(db, async (tx) => {
+    const row = await updateTariff(tx, workspace.id, site.id, tariffId, t);
+    await recordEvent(tx, workspace.id, user.id, { action: 'tariff.updated', subjectType: 'tariff', subjectId: tariffId, detail: { siteId: site.id, before: existing.definition, after: t } });
+    return row;
+  });
   return json({ tariff: updated });
 });
 
@@ -44,7 +47,12 @@ export const DELETE = endpoint(async (ctx) => {
   const { tariffId } = readParams(ctx.params, Params);
   const db = getDb();
   const existing = await getTariff(db, workspace.id, site.id, tariffId);
-  if (!existing || !(await deleteTariff(db, workspace.id, site.id, tariffId))) throw notFound('Tariff');
-  await recordEvent(db, workspace.id, user.id, { action: 'tariff.deleted', subjectType: 'tariff', subjectId: tariffId, detail: { siteId: site.id, name: existing.name, effectiveFrom: existing.effectiveFrom } });
+  if (!existing) throw notFound('Tariff');
+  const deleted = await atomically(db, async (tx) => {
+    if (!(await deleteTariff(tx, workspace.id, site.id, tariffId))) return false;
+    await recordEvent(tx, workspace.id, user.id, { action: 'tariff.deleted', subjectType: 'tariff', subjectId: tariffId, detail: { siteId: site.id, name: existing.name, effectiveFrom: existing.effectiveFrom } });
+    return true;
+  });
+  if (!deleted) throw notFound('Tariff');
   return new Response(null, { status: 204 });
 });

@@ -4,7 +4,7 @@ import { requirePermission } from '@/lib/auth/guards';
 import { siteInWorkspace } from '@/lib/api/site-scope';
 import { getDb } from '@/lib/db/client';
 import { createTariff, findTariffFrom, listTariffs } from '@/lib/db/tariffs';
-import { recordEvent } from '@/lib/db/audit-log';
+import { atomically, recordEvent } from '@/lib/db/audit-log';
 import { TariffVersionSchema } from '@/lib/schemas/tariff';
 import { refuseUnfitDemandWindow } from '@/lib/tariff-editor/data-fit';
 
@@ -27,7 +27,10 @@ export const POST = endpoint(async (ctx) => {
   if (await findTariffFrom(db, workspace.id, site.id, t.effectiveFrom)) {
     throw new ApiError(409, 'duplicate_version', `A tariff version already starts on ${t.effectiveFrom}. Edit that version or choose another date.`, { effectiveFrom: 'Already used by another version.' });
   }
-  const created = await createTariff(db, workspace.id, site.id, t, user.id);
-  await recordEvent(db, workspace.id, user.id, { action: 'tariff.created', subjectType: 'tariff', subjectId: created.id, detail: { siteId: site.id, name: t.name, effectiveFrom: t.effectiveFrom, rules: t.rules.length } });
+  const created = await atomically(db, async (tx) => {
+    const row = await createTariff(tx, workspace.id, site.id, t, user.id);
+    await recordEvent(tx, workspace.id, user.id, { action: 'tariff.created', subjectType: 'tariff', subjectId: row.id, detail: { siteId: site.id, name: t.name, effectiveFrom: t.effectiveFrom, rules: t.rules.length } });
+    return row;
+  });
   return json({ tariff: created }, 201);
 });

@@ -5,7 +5,7 @@ import { requirePermission } from '@/lib/auth/guards';
 import { siteInWorkspace } from '@/lib/api/site-scope';
 import { getDb } from '@/lib/db/client';
 import { deleteBill, getBill } from '@/lib/db/bills';
-import { recordEvent } from '@/lib/db/audit-log';
+import { atomically, recordEvent } from '@/lib/db/audit-log';
 
 export const prerender = false;
 const Params = z.object({ billId: z.string().min(1).max(64) });
@@ -16,7 +16,12 @@ export const DELETE = endpoint(async (ctx) => {
   const { billId } = readParams(ctx.params, Params);
   const db = getDb();
   const b = await getBill(db, workspace.id, site.id, billId);
-  if (!b || !(await deleteBill(db, workspace.id, site.id, billId))) throw notFound('Bill');
-  await recordEvent(db, workspace.id, user.id, { action: 'bill.deleted', subjectType: 'bill', subjectId: billId, detail: { periodStart: b.periodStart, periodEnd: b.periodEnd } });
+  if (!b) throw notFound('Bill');
+  const deleted = await atomically(db, async (tx) => {
+    if (!(await deleteBill(tx, workspace.id, site.id, billId))) return false;
+    await recordEvent(tx, workspace.id, user.id, { action: 'bill.deleted', subjectType: 'bill', subjectId: billId, detail: { siteId: site.id, periodStart: b.periodStart, periodEnd: b.periodEnd } });
+    return true;
+  });
+  if (!deleted) throw notFound('Bill');
   return new Response(null, { status: 204 });
 });

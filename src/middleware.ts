@@ -9,6 +9,7 @@ import { getDb } from './lib/db/client';
 import { resolveWorkspace } from './lib/db/workspaces';
 import { errorResponse, ApiError } from './lib/api/errors';
 import { markStaleImportsInterrupted } from './lib/db/meter-imports';
+import { sweepTemp } from './lib/files/store';
 import { changesIdentity, forgetAll, recall, remember, sessionKey } from './lib/auth/session-cache';
 
 const cfg = getConfig();
@@ -44,12 +45,17 @@ function originAllowed(request: Request): boolean {
   return !(request.headers.get('cookie') ?? '').includes('varledger');
 }
 
-// Once per process: imports a stopped server left half-way are marked interrupted (their data was never written).
+// Once per process: imports a stopped server left half-way are marked interrupted (their data was never written),
+// and its upload temp files are removed.
 // With a shared libSQL server another instance may be mid-import, so only imports idle for 10 minutes count.
 let recovered: Promise<unknown> | null = null;
 
 export const onRequest = defineMiddleware(async (context, next) => {
-  recovered ??= markStaleImportsInterrupted(getDb(), cfg.DATABASE_URL.startsWith('file:') ? 0 : 10 * 60_000).catch((e) => console.error('[imports] recovery failed', e));
+  recovered ??= Promise.all([
+    markStaleImportsInterrupted(getDb(), cfg.DATABASE_URL.startsWith('file:') ? 0 : 10 * 60_000).catch((e) => console.error('[imports] recovery failed', e)),
+    // Upload temp files a killed server left; 15 minutes old at least, so another instance's upload in progress is kept.
+    sweepTemp(15 * 60_000).catch((e) => console.error('[files] temp sweep failed', e)),
+  ]);
   await recovered;
   context.locals.user = null;
   context.locals.session = null;

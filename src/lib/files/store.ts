@@ -4,7 +4,7 @@
  */
 import { createHash, randomBytes } from 'node:crypto';
 import { createReadStream, createWriteStream, existsSync, mkdirSync } from 'node:fs';
-import { rename, rm, stat } from 'node:fs/promises';
+import { readdir, rename, rm, stat } from 'node:fs/promises';
 import { join } from 'node:path';
 import type { Readable } from 'node:stream';
 import { getConfig } from '../config';
@@ -77,4 +77,32 @@ export async function storedSize(sha256: string): Promise<number | null> {
   } catch {
     return null;
   }
+}
+
+/**
+ * Removes upload temp files a stopped server left behind (a kill mid-upload). Only files older
+ * than `minAgeMs` go, so an upload another instance sharing DATA_DIR is receiving is untouched.
+ * Returns how many were removed.
+ */
+export async function sweepTemp(minAgeMs = 60 * 60_000, now = Date.now()): Promise<number> {
+  let removed = 0;
+  let names: string[];
+  try {
+    names = await readdir(tmpDir());
+  } catch {
+    return 0;
+  }
+  for (const name of names) {
+    if (!name.endsWith('.part')) continue;
+    const p = join(tmpDir(), name);
+    try {
+      if (now - (await stat(p)).mtimeMs >= minAgeMs) {
+        await rm(p, { force: true });
+        removed++;
+      }
+    } catch {
+      /* gone already */
+    }
+  }
+  return removed;
 }

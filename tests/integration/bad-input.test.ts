@@ -116,6 +116,18 @@ function multipartCases(r: RouteDoc): Case[] {
     expectError(await x.c.request('POST', urlOf(r, x.ids), form), 400, { field: 'file' });
   });
   add('JSON instead of multipart -> 415', async (x) => expectError(await send(x, r, JSON.stringify({ file: 'x' })), 415, { code: 'unsupported_media_type' }));
+  add('an unknown form field -> 400 naming it', async (x) => expectError(await up(x, { ...(spec.mapping ? { mapping: JSON.stringify(spec.mapping()) } : {}), overwriteEverything: 'true' }), 400, { field: 'overwriteEverything' }));
+  add('a second file in another field -> 400 naming it', async (x) => {
+    const form = new FormData();
+    if (spec.mapping) form.append('mapping', JSON.stringify(spec.mapping()));
+    const f = spec.file();
+    form.append('attachment', new Blob([f.content], { type: 'application/octet-stream' }), 'extra.bin');
+    form.append('file', new Blob([f.content], { type: 'text/csv' }), f.name);
+    expectError(await x.c.request('POST', urlOf(r, x.ids), form), 400, { field: 'attachment' });
+  });
+  if (key.endsWith('/meter-data')) {
+    add('replace other than true/false -> 400 naming replace', async (x) => expectError(await up(x, { mapping: JSON.stringify(spec.mapping!()), replace: 'yes' }), 400, { field: 'replace' }));
+  }
   if (!spec.mapping) {
     add('a text file where a PDF, PNG or JPEG belongs -> 415', async (x) => expectError(await up(x, {}, { name: 'bill.pdf', content: 'just text, whatever the name says' }), 415));
     return cases;

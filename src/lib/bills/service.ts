@@ -36,7 +36,7 @@ export async function addBill({ db, organizationId, site, userId }: Ctx, b: Bill
 /** Imports a bill-history CSV: every row valid and no overlap, or nothing is written. */
 export async function importBillCsv(ctx: Ctx, request: Request, maxBytes: number) {
   const { db, organizationId, site, userId } = ctx;
-  const upload = await readMultipart(request, { fileField: 'file', maxFileBytes: maxBytes });
+  const upload = await readMultipart(request, { fileField: 'file', maxFileBytes: maxBytes, textFields: ['mapping'] });
   const file = upload.file;
   try {
     if (!file) throw new ApiError(400, 'invalid_input', 'Attach the bill history in the "file" field.', { file: 'Required.' });
@@ -82,7 +82,7 @@ export async function importBillCsv(ctx: Ctx, request: Request, maxBytes: number
 /** Attaches a PDF, PNG or JPEG (checked by its first bytes) to a bill. */
 export async function attachDocument(ctx: Ctx, billRow: BillRow, request: Request, maxBytes: number) {
   const { db, organizationId, site, userId } = ctx;
-  const upload = await readMultipart(request, { fileField: 'file', maxFileBytes: maxBytes });
+  const upload = await readMultipart(request, { fileField: 'file', maxFileBytes: maxBytes, textFields: [] });
   const file = upload.file;
   try {
     if (!file || file.bytes === 0) throw new ApiError(400, 'invalid_input', 'Attach the bill document in the "file" field.', { file: 'Required.' });

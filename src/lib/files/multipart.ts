@@ -12,7 +12,8 @@ export type MultipartUpload = { fields: Record<string, string>; file: (Received 
 
 const MB = (n: number) => `${(n / 1024 / 1024).toFixed(n >= 1024 * 1024 ? 0 : 2)} MB`;
 
-export async function readMultipart(request: Request, opts: { fileField: string; maxFileBytes: number }): Promise<MultipartUpload> {
+/** `textFields`: the text fields the endpoint reads; any other field (or a file in another field) is refused with 400 naming it. */
+export async function readMultipart(request: Request, opts: { fileField: string; maxFileBytes: number; textFields?: readonly string[] }): Promise<MultipartUpload> {
   const type = request.headers.get('content-type') ?? '';
   if (!type.startsWith('multipart/form-data')) throw new ApiError(415, 'unsupported_media_type', `Send the file as multipart/form-data with the file in the "${opts.fileField}" field.`);
   const declared = Number(request.headers.get('content-length') ?? 'NaN');
@@ -21,12 +22,17 @@ export async function readMultipart(request: Request, opts: { fileField: string;
   if (!request.body) throw new ApiError(400, 'invalid_input', `No file was sent in the "${opts.fileField}" field.`, { [opts.fileField]: 'Required.' });
 
   const bb = busboy({ headers: { 'content-type': type }, limits: { files: 1, fields: 20, fieldSize: 64 * 1024, fileSize: opts.maxFileBytes + 1 } });
-  const fields: Record<string, string> = {};
+  const fields: Record<string, string> = Object.create(null);
+  const unknown: string[] = [];
   const state: { file: Promise<MultipartUpload['file']> | null } = { file: null };
   const done = new Promise<void>((resolve, reject) => {
-    bb.on('field', (name, value) => (fields[name] = value));
+    bb.on('field', (name, value) => {
+      if ((opts.textFields ?? []).includes(name)) fields[name] = value;
+      else unknown.push(name);
+    });
     bb.on('file', (name, stream, info) => {
       if (name !== opts.fileField || state.file) {
+        if (name !== opts.fileField) unknown.push(name);
         stream.resume();
         return;
       }
@@ -47,5 +53,10 @@ export async function readMultipart(request: Request, opts: { fileField: string;
   }
   const file = state.file ? await state.file : null;
   if (file?.truncated) throw tooLarge();
+  if (unknown.length) {
+    if (file) await discardTemp(file);
+    const named = Object.fromEntries(unknown.map((n) => [n, 'Unknown field: remove it.']));
+    throw new ApiError(400, 'invalid_input', `${unknown[0]}: Unknown field: remove it.`, named);
+  }
   return { fields, file };
 }

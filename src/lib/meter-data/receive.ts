@@ -18,7 +18,7 @@ export const ImportIdSchema = z.string().regex(/^imp_[A-Za-z0-9_-]{8,40}$/, 'An 
 export const newImportId = () => `imp_${randomBytes(12).toString('base64url')}`;
 
 export async function receiveMeterUpload(db: Db, request: Request, ctx: { site: SiteDto; organizationId: string; userId: string; maxBytes: number; importId?: string }) {
-  const upload = await readMultipart(request, { fileField: 'file', maxFileBytes: ctx.maxBytes });
+  const upload = await readMultipart(request, { fileField: 'file', maxFileBytes: ctx.maxBytes, textFields: ['mapping', 'replace'] });
   const file = upload.file;
   try {
     if (!file) throw new ApiError(400, 'invalid_input', 'Attach the meter export in the "file" field.', { file: 'Required.' });
@@ -35,6 +35,7 @@ export async function receiveMeterUpload(db: Db, request: Request, ctx: { site: 
       throw new ApiError(400, 'invalid_input', `mapping.${e.message}`, fields);
     }
     const importId = ctx.importId ?? newImportId();
+    if (upload.fields.replace !== undefined && upload.fields.replace !== 'true' && upload.fields.replace !== 'false') throw new ApiError(400, 'invalid_input', 'replace: Send true or false.', { replace: 'Send true or false.' });
     const replace = upload.fields.replace === 'true';
     const fileName = sanitizeFileName(file.fileName);
     let stored = await findStoredFile(db, ctx.organizationId, ctx.site.id, 'meter-data', file.sha256);

@@ -11,7 +11,7 @@ import { beforeAll, describe, expect, it } from 'vitest';
 import { readdirSync, statSync } from 'node:fs';
 import { join, relative } from 'node:path';
 import { ROUTES } from '../../src/lib/api/openapi';
-import { Client } from '../support/http';
+import { as, Client, DEMO } from '../support/http';
 import { ownerOfNewWorkspace, uniqueEmail, verifiedUser } from '../support/accounts';
 import { linkIn, waitForMail } from '../support/mailbox';
 import { uploadFile } from '../support/upload';
@@ -433,6 +433,16 @@ describe('activity record (Owners)', () => {
     const bad = await fx.c.owner.get('/api/activity?kind=everything');
     expect(bad.status).toBe(400);
     expect(Object.keys(bad.json.error.fields)).toContain('kind');
+  });
+
+  it('the seeded demo has its history: tariffs entered, meter data and bills imported, plans saved, the audit paid', async () => {
+    const demoOwner = await as(DEMO.owner);
+    const entries = (await demoOwner.get('/api/activity?limit=200')).json.entries as { action: string; summary: string; at: string }[];
+    const actions = new Set(entries.map((e) => e.action));
+    for (const a of ['tariff.created', 'meter-data.imported', 'bill.imported', 'plan.created', 'purchase.paid']) expect(actions, a).toContain(a);
+    const paid = entries.find((e) => e.action === 'purchase.paid')!;
+    expect(paid.summary).toBe('Paid for Site audits (receipt VLR-20260112-KLN4WB).');
+    expect(paid.at).toBe('2026-01-12T15:42:00.000Z');
   });
 
   it('the Activity page shows the record to the Owner and sends other roles home', async () => {

@@ -4,10 +4,10 @@ import type { Db } from './client';
 import { newId } from './ids';
 import { auditEvent } from './schema';
 
-export type AuditEntry = { action: string; subjectType: string; subjectId?: string | null; detail?: Record<string, unknown> };
+export type AuditEntry = { action: string; subjectType: string; subjectId?: string | null; detail?: Record<string, unknown>; /** when it happened, if not now (the demo's history) */ at?: Date };
 
 export async function recordEvent(db: Db, organizationId: string, actorUserId: string | null, e: AuditEntry): Promise<void> {
-  await db.insert(auditEvent).values({ id: newId('evt'), organizationId, actorUserId, action: e.action, subjectType: e.subjectType, subjectId: e.subjectId ?? null, detail: e.detail ?? null });
+  await db.insert(auditEvent).values({ id: newId('evt'), organizationId, actorUserId, action: e.action, subjectType: e.subjectType, subjectId: e.subjectId ?? null, detail: e.detail ?? null, ...(e.at ? { createdAt: e.at } : {}) });
 }
 
 export async function listEvents(db: Db, organizationId: string, limit = 200) {

@@ -5,6 +5,7 @@
  * meter-multiplier error in the generator; one bill at another plant is deliberately mis-billed).
  * Idempotent: a site that already has meter data, a tariff or bills keeps them.
  */
+import { recordEvent } from '../db/audit-log';
 import { eq } from 'drizzle-orm';
 import { Readable } from 'node:stream';
 import type { Db } from '../db/client';
@@ -49,7 +50,8 @@ export async function seedDemoData(db: Db): Promise<{ imported: number; tariffs:
       if (!row) continue;
       if ((await listTariffs(db, o.id, row.id)).length === 0) {
         const ex = EXAMPLE_TARIFFS.find((e) => e.key === DEMO_SITE_TARIFF[s.name])!;
-        await createTariff(db, o.id, row.id, { ...tariffSchema.parse(ex.tariff), effectiveFrom: ex.tariff.effectiveFrom }, energy.id);
+        const t = await createTariff(db, o.id, row.id, { ...tariffSchema.parse(ex.tariff), effectiveFrom: ex.tariff.effectiveFrom }, energy.id);
+        await recordEvent(db, o.id, energy.id, { action: 'tariff.created', subjectType: 'tariff', subjectId: t.id, detail: { siteId: row.id, name: ex.tariff.name, effectiveFrom: ex.tariff.effectiveFrom, rules: ex.tariff.rules.length } });
         counts.tariffs++;
       }
     }
@@ -80,6 +82,7 @@ export async function seedDemoData(db: Db): Promise<{ imported: number; tariffs:
     const parsed = await parseBillCsv([demoBillCsv(key, charges)], demoBillMapping(key));
     if (!parsed.ok) throw new Error(`demo bills of ${spec.siteName} do not parse: ${parsed.problems[0]?.message}`);
     await db.insert(bill).values(parsed.bills.map(({ row: _r, ...b }) => billValues(org.id, site.id, b, 'csv', site.currency, energy.id)));
+    await recordEvent(db, org.id, energy.id, { action: 'bill.imported', subjectType: 'site', subjectId: site.id, detail: { bills: parsed.bills.length } });
     counts.bills += parsed.bills.length;
   }
   return counts;

@@ -2,6 +2,7 @@
  * The demo's purchase history: Brackwater Kiln Works was bought and paid (so it is Audited),
  * the other demo plants stay Draft. Idempotent: the purchase is found by its receipt number.
  */
+import { recordEvent } from '../db/audit-log';
 import { and, eq } from 'drizzle-orm';
 import type { Db } from '../db/client';
 import { organization, purchase, site, user } from '../db/schema';
@@ -40,5 +41,6 @@ export async function seedDemoPurchases(db: Db): Promise<{ created: number }> {
     closedAt: DEMO_PAID_AT,
   });
   await db.update(site).set({ auditState: 'audited' }).where(and(eq(site.organizationId, org.id), eq(site.id, paidSite.id), eq(site.auditState, 'draft')));
+  await recordEvent(db, org.id, buyer.id, { action: 'purchase.paid', subjectType: 'purchase', subjectId: 'pur_demoBrackwater01', detail: { receiptNumber: DEMO_RECEIPT_NUMBER, amountTotal: 29_000, currency: 'USD', siteIds: [paidSite.id], auditedSiteIds: [paidSite.id], via: 'demo' }, at: DEMO_PAID_AT });
   return { created: 1 };
 }

@@ -4,6 +4,7 @@
  * Switched bank plan, a paid Site audit with its receipt, and the report (Reported). The main
  * demo company keeps one Audited site and the others Draft. Idempotent.
  */
+import { recordEvent } from '../db/audit-log';
 import { and, eq } from 'drizzle-orm';
 import { Readable } from 'node:stream';
 import type { Db } from '../db/client';
@@ -58,6 +59,7 @@ export async function seedDemoReport(db: Db): Promise<{ created: number }> {
   if (!(await db.query.purchase.findFirst({ where: and(eq(purchase.organizationId, org.id), eq(purchase.receiptNumber, DEMO_REPORT_RECEIPT)) }))) {
     await db.insert(purchase).values({ id: 'pur_demoHarrow01', organizationId: org.id, checkoutSessionId: 'cs_demo_harrow_2025_11', status: 'paid', unitAmount: 29_000, amountTotal: 29_000, currency: 'USD', siteIds: [site.id], siteNames: [site.name], buyerUserId: consultant.id, buyerEmail: consultant.email, buyerName: consultant.name, receiptNumber: DEMO_REPORT_RECEIPT, paymentIntentId: 'pi_demo_harrow_2025_11', createdAt: new Date(paidAt.getTime() - 3 * 60_000), paidAt, closedAt: paidAt });
     await db.update(siteTable).set({ auditState: 'audited' }).where(and(eq(siteTable.id, site.id), eq(siteTable.auditState, 'draft')));
+    await recordEvent(db, org.id, consultant.id, { action: 'purchase.paid', subjectType: 'purchase', subjectId: 'pur_demoHarrow01', detail: { receiptNumber: DEMO_REPORT_RECEIPT, amountTotal: 29_000, currency: 'USD', siteIds: [site.id], auditedSiteIds: [site.id], via: 'demo' }, at: paidAt });
     created++;
   }
   if ((await listReports(db, org.id, site.id)).length === 0) {

@@ -443,6 +443,7 @@ describe('activity record (Owners)', () => {
     const paid = entries.find((e) => e.action === 'purchase.paid')!;
     expect(paid.summary).toBe('Paid for Site audits (receipt VLR-20260112-KLN4WB).');
     expect(paid.at).toBe('2026-01-12T15:42:00.000Z');
+    expect((paid as unknown as { site: { name: string } }).site.name).toBe('Brackwater Kiln Works');
   });
 
   it('the Activity page shows the record to the Owner and sends other roles home', async () => {

@@ -152,5 +152,8 @@ export async function listActivity(db: Db, organizationId: string, q: ActivityQu
 function siteIdOf(e: { subjectType: string; subjectId: string | null; detail: Record<string, unknown> | null }): string | null {
   if (e.subjectType === 'site') return e.subjectId;
   const s = e.detail?.siteId;
-  return typeof s === 'string' ? s : null;
+  if (typeof s === 'string') return s;
+  // A purchase names its sites; one site is shown as the entry's site.
+  const ids = e.detail?.siteIds;
+  return Array.isArray(ids) && ids.length === 1 && typeof ids[0] === 'string' ? ids[0] : null;
 }

@@ -24,7 +24,7 @@ if (trusted && !['x-forwarded-for', 'x-real-ip'].includes(trusted)) {
 }
 
 /** The address to believe: the trusted proxy's last entry, else the socket. */
-export function clientAddressOf(headers, socketAddress) {
+function clientAddressOf(headers, socketAddress) {
   if (trusted) {
     const raw = headers[trusted];
     const last = (Array.isArray(raw) ? raw.join(',') : (raw ?? '')).split(',').map((s) => s.trim()).filter(Boolean).at(-1);

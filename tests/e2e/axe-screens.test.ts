@@ -2,7 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { inject } from 'vitest';
 import AxeBuilder from '@axe-core/playwright';
 import type { Browser } from 'playwright-core';
-import { launch, SHOTS } from '../support/browser';
+import { launch, SHOTS, signInPage } from '../support/browser';
 import { DEMO } from '../support/http';
 
 let browser: Browser;
@@ -31,10 +31,7 @@ describe('axe on the remaining screens (no serious or critical violation)', () =
         await page.goto(`${base}${path}`);
         await check(path);
       }
-      await page.goto(`${base}/sign-in`);
-      await page.getByLabel('E-mail').fill(DEMO.owner);
-      await page.getByLabel('Password').fill(DEMO.password);
-      await page.getByRole('button', { name: 'Sign in' }).click();
+      await signInPage(page, base, DEMO.owner, DEMO.password);
       await page.waitForURL(`${base}/`);
       for (const path of ['/members', '/purchases', '/activity', '/activity?kind=tariff', '/workspaces/new', '/sites/site_does_not_exist']) {
         await page.goto(`${base}${path}`);

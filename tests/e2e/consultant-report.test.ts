@@ -3,7 +3,7 @@ import { inject } from 'vitest';
 import { readFileSync } from 'node:fs';
 import AxeBuilder from '@axe-core/playwright';
 import type { Browser, Page } from 'playwright-core';
-import { launch, SHOTS } from '../support/browser';
+import { launch, SHOTS, signInPage } from '../support/browser';
 import { as, DEMO } from '../support/http';
 import { uploadFile } from '../support/upload';
 import { demoMeterCsv, demoMeterMapping } from '../../src/lib/demo/meter-csv';
@@ -41,10 +41,7 @@ describe('Consultant audits a client site and issues a Savings report in Chromiu
 
     const ctx = await browser.newContext({ viewport: { width: 1280, height: 900 }, acceptDownloads: true });
     const page = await ctx.newPage();
-    await page.goto(`${base}/sign-in`);
-    await page.getByLabel('E-mail').fill(DEMO.consultant);
-    await page.getByLabel('Password').fill(DEMO.password);
-    await page.getByRole('button', { name: 'Sign in' }).click();
+    await signInPage(page, base, DEMO.consultant, DEMO.password);
     await page.waitForURL(`${base}/`);
     // Switch this browser session to the client workspace (the switcher itself is exercised in the purchase journey).
     const switched = await page.request.put(`${base}/api/workspaces/active`, { data: { workspaceId: harrow.id }, headers: { origin: base } });

@@ -4,7 +4,7 @@ import { readFileSync } from 'node:fs';
 import ExcelJS from 'exceljs';
 import AxeBuilder from '@axe-core/playwright';
 import type { Browser, Page } from 'playwright-core';
-import { launch, SHOTS } from '../support/browser';
+import { launch, SHOTS, signInPage } from '../support/browser';
 import { DEMO } from '../support/http';
 
 let browser: Browser;
@@ -21,15 +21,6 @@ afterAll(async () => {
   await browser?.close();
 });
 
-async function signIn(page: Page, email: string) {
-  await page.goto(`${base}/sign-in`);
-  await page.getByLabel('E-mail').fill(email);
-  await page.getByLabel('Password').fill(DEMO.password);
-  await page.getByRole('button', { name: 'Sign in' }).click();
-  // Finance lands on Payback, the others on the Portfolio.
-  await page.waitForURL((u) => !u.pathname.startsWith('/sign-in'));
-}
-
 /** Accessibility check: no serious or critical axe violations on the page as shown. */
 async function axeSerious(page: Page) {
   const r = await new AxeBuilder({ page }).analyze();
@@ -40,7 +31,7 @@ describe('Correction and Payback in Chromium', () => {
   it('a Consultant builds and saves a Fixed and a Switched plan on Brackwater Kiln Works and sees the cautions', async () => {
     const ctx = await browser.newContext({ viewport: { width: 1280, height: 900 } });
     const page = await ctx.newPage();
-    await signIn(page, DEMO.consultant);
+    await signInPage(page, base, DEMO.consultant, DEMO.password);
     // The consultant belongs to two workspaces: make Northgate Ceramics the active one.
     const workspaces = (await (await page.request.get(`${base}/api/workspaces`)).json()).workspaces as { id: string; name: string }[];
     const northgate = workspaces.find((w) => w.name === 'Northgate Ceramics')!;
@@ -119,7 +110,7 @@ describe('Correction and Payback in Chromium', () => {
   it('Finance opens Payback, sees both plans, downloads XLSX and CSV, and has no edit controls on Correction', async () => {
     const ctx = await browser.newContext({ viewport: { width: 1280, height: 900 }, acceptDownloads: true });
     const page = await ctx.newPage();
-    await signIn(page, DEMO.finance);
+    await signInPage(page, base, DEMO.finance, DEMO.password); // Finance lands on Payback
     if (!page.url().endsWith('/payback')) await page.getByRole('link', { name: 'Payback', exact: true }).click();
     await page.waitForURL(`${base}/payback`);
     const table = page.getByRole('table', { name: 'Payback of saved plans' });

@@ -4,7 +4,7 @@ import { mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { Browser } from 'playwright-core';
-import { launch, SHOTS } from '../support/browser';
+import { launch, SHOTS, signInPage } from '../support/browser';
 import { DEMO } from '../support/http';
 import { demoBillCsv, demoMeterCsv } from '../../src/lib/demo/meter-csv';
 
@@ -30,10 +30,7 @@ describe('Energy manager imports meter data and bills in Chromium', () => {
 
     const ctx = await browser.newContext({ viewport: { width: 1280, height: 900 } });
     const page = await ctx.newPage();
-    await page.goto(`${base}/sign-in`);
-    await page.getByLabel('E-mail').fill(DEMO.energy);
-    await page.getByLabel('Password').fill(DEMO.password);
-    await page.getByRole('button', { name: 'Sign in' }).click();
+    await signInPage(page, base, DEMO.energy, DEMO.password);
     await page.waitForURL(`${base}/`);
 
     await page.getByRole('button', { name: 'Add site' }).click();

@@ -1,7 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { inject } from 'vitest';
 import type { Browser } from 'playwright-core';
-import { launch, SHOTS } from '../support/browser';
+import { launch, SHOTS, signInPage } from '../support/browser';
 import { as, DEMO } from '../support/http';
 import { waitForMail } from '../support/mailbox';
 
@@ -21,10 +21,7 @@ describe('Consultant buys Site audits in Chromium', () => {
   it('chooses two Draft sites, is declined once, pays with the test card, returns to Paid, sees them Audited and gets the receipt', async () => {
     const ctx = await browser.newContext({ viewport: { width: 1280, height: 900 } });
     const page = await ctx.newPage();
-    await page.goto(`${base}/sign-in`);
-    await page.getByLabel('E-mail').fill(DEMO.consultant);
-    await page.getByLabel('Password').fill(DEMO.password);
-    await page.getByRole('button', { name: 'Sign in' }).click();
+    await signInPage(page, base, DEMO.consultant, DEMO.password);
     await page.waitForURL(`${base}/`);
 
     // The consultant's session may open on the other client: switch to Northgate Ceramics.
@@ -99,10 +96,7 @@ describe('Consultant buys Site audits in Chromium', () => {
     expect(created.status).toBe(201);
     const ctx = await browser.newContext({ viewport: { width: 1280, height: 900 } });
     const page = await ctx.newPage();
-    await page.goto(`${base}/sign-in`);
-    await page.getByLabel('E-mail').fill(DEMO.owner);
-    await page.getByLabel('Password').fill(DEMO.password);
-    await page.getByRole('button', { name: 'Sign in' }).click();
+    await signInPage(page, base, DEMO.owner, DEMO.password);
     await page.waitForURL(`${base}/`);
     await page.goto(`${base}/purchases`);
     await page.getByLabel('Cancel Journey Annex').check();

@@ -2,7 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { inject } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
 import AxeBuilder from '@axe-core/playwright';
-import { launch, SHOTS } from '../support/browser';
+import { launch, SHOTS, signInPage } from '../support/browser';
 import { DEMO } from '../support/http';
 
 let browser: Browser;
@@ -17,12 +17,8 @@ afterAll(async () => {
 });
 
 async function signIn(page: Page, email: string) {
-  await page.goto(`${base}/sign-in`);
-  await page.getByLabel('E-mail').fill(email);
-  await page.getByLabel('Password').fill(DEMO.password);
-  await page.getByRole('button', { name: 'Sign in' }).click();
   // Each role has its own landing page; the journeys start from the Portfolio.
-  await page.waitForURL((u) => !u.pathname.startsWith('/sign-in'));
+  await signInPage(page, base, email, DEMO.password);
   await page.goto(`${base}/`);
 }
 

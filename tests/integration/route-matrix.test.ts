@@ -124,7 +124,7 @@ type Row = {
 /** 401 anonymous; `okStatus` for the roles granted; 403 for the other members; `other` as given. */
 function grant(okStatus: number, roles: Member[] | 'all', other: number): Record<Actor, number> {
   const granted = roles === 'all' ? MEMBERS : roles;
-  return { anonymous: 401, owner: 0, energy: 0, consultant: 0, finance: 0, other, ...Object.fromEntries(MEMBERS.map((m) => [m, granted.includes(m) ? okStatus : 403])) } as Record<Actor, number>;
+  return { anonymous: 401, other, ...Object.fromEntries(MEMBERS.map((m) => [m, granted.includes(m) ? okStatus : 403])) } as Record<Actor, number>;
 }
 const everyone = (status: number): Record<Actor, number> => Object.fromEntries(ACTORS.map((a) => [a, status])) as Record<Actor, number>;
 const signedIn = (status: number, anonymous = 401): Record<Actor, number> => ({ ...everyone(status), anonymous });

@@ -18,3 +18,12 @@ export async function listEvents(db: Db, organizationId: string, limit = 200) {
 export function atomically<T>(db: Db, fn: (tx: Db) => Promise<T>): Promise<T> {
   return db.transaction((tx) => fn(tx as unknown as Db));
 }
+
+/** Deletes with `remove` and records `entry` in one transaction; false, and nothing recorded, when there was nothing to delete. */
+export function deleteRecorded(db: Db, organizationId: string, actorUserId: string, remove: (tx: Db) => Promise<boolean>, entry: AuditEntry): Promise<boolean> {
+  return atomically(db, async (tx) => {
+    if (!(await remove(tx))) return false;
+    await recordEvent(tx, organizationId, actorUserId, entry);
+    return true;
+  });
+}

@@ -30,21 +30,16 @@ export const EXPORT_COLUMNS: Column[] = [
   { header: 'NPV at 120 % savings (currency)', value: (r) => r.npvHigh, kind: 'money' },
 ];
 
-/** Prefixes a single quote to text a spreadsheet would evaluate (the CSV and XLSX exports share it). */
-export const escapeCell = escapeFormula;
-
 function cellText(c: Column, r: PaybackRow): string {
   const v = c.value(r);
   if (v === null) return c.kind === 'years' ? 'not paid back' : '';
   if (typeof v === 'number') return c.kind === 'money' ? v.toFixed(2) : c.kind === 'fraction' ? v.toFixed(2) : c.kind === 'years' ? v.toFixed(2) : String(Math.round(v * 100) / 100);
-  return escapeCell(v);
+  return escapeFormula(v);
 }
 
-const csvField = quoteCsv;
-
 export function paybackCsv(t: PaybackTable): string {
-  const lines = [EXPORT_COLUMNS.map((c) => csvField(c.header)).join(',')];
-  for (const r of t.rows) lines.push(EXPORT_COLUMNS.map((c) => csvField(cellText(c, r))).join(','));
+  const lines = [EXPORT_COLUMNS.map((c) => quoteCsv(c.header)).join(',')];
+  for (const r of t.rows) lines.push(EXPORT_COLUMNS.map((c) => quoteCsv(cellText(c, r))).join(','));
   return '\uFEFF' + lines.join('\r\n') + '\r\n';
 }
 
@@ -59,7 +54,7 @@ export async function paybackXlsx(t: PaybackTable): Promise<Buffer> {
       EXPORT_COLUMNS.map((c) => {
         const v = c.value(r);
         if (v === null) return c.kind === 'years' ? 'not paid back' : null;
-        return typeof v === 'string' ? escapeCell(v) : v;
+        return typeof v === 'string' ? escapeFormula(v) : v;
       }),
     );
     EXPORT_COLUMNS.forEach((c, i) => {

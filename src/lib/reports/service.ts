@@ -5,7 +5,7 @@ import type { Db } from '../db/client';
 import { savingsReport, site as siteTable } from '../db/schema';
 import { newId } from '../db/ids';
 import { listMembers } from '../db/workspaces';
-import { recordEvent } from '../db/audit-log';
+import { atomically, recordEvent } from '../db/audit-log';
 import { ApiError, notFound } from '../api/errors';
 import { requireAuditPaid } from '../payments/entitlements';
 import { getPlan } from '../correction-plans/plans-store';
@@ -57,10 +57,10 @@ export async function issueReport(db: Db, ctx: { organizationId: string; workspa
   const title = input.title ?? `Power-factor savings report: ${site.name}`;
   const snapshot = await buildSnapshot(db, organizationId, { site, plan, workspaceName: ctx.workspaceName, issuedBy: { name: user.name, email: user.email }, title, now: ctx.now });
   const id = newId('rpt');
-  await db.transaction(async (tx) => {
+  await atomically(db, async (tx) => {
     await tx.insert(savingsReport).values({ id, organizationId, siteId: site.id, planId: plan.id, title, snapshot: snapshot as unknown as Record<string, unknown>, issuedBy: user.id, ...(ctx.now ? { issuedAt: ctx.now } : {}) });
     await tx.update(siteTable).set({ auditState: 'reported', updatedAt: new Date() }).where(and(eq(siteTable.organizationId, organizationId), eq(siteTable.id, site.id)));
-    await recordEvent(tx as unknown as Db, organizationId, user.id, { action: 'report.issued', subjectType: 'savings_report', subjectId: id, detail: { siteId: site.id, planId: plan.id, title } });
+    await recordEvent(tx, organizationId, user.id, { action: 'report.issued', subjectType: 'savings_report', subjectId: id, detail: { siteId: site.id, planId: plan.id, title } });
   });
   // Finance members get a link; sending is retried and logged by the mailer.
   const base = getConfig().baseUrl;

@@ -3,7 +3,7 @@ import { ApiError, json, notFound } from '@/lib/api/errors';
 import { requirePermission } from '@/lib/auth/guards';
 import { getDb } from '@/lib/db/client';
 import { deleteSite, findSiteByName, getSite, updateSite } from '@/lib/db/sites';
-import { atomically, recordEvent } from '@/lib/db/audit-log';
+import { atomically, deleteRecorded, recordEvent } from '@/lib/db/audit-log';
 import { SiteIdParams, SiteUpdateSchema } from '@/lib/schemas/site';
 
 export const prerender = false;
@@ -41,11 +41,7 @@ export const DELETE = endpoint(async (ctx) => {
   const db = getDb();
   const existing = await getSite(db, workspace.id, siteId);
   if (!existing) throw notFound('Site');
-  const deleted = await atomically(db, async (tx) => {
-    if (!(await deleteSite(tx, workspace.id, siteId))) return false;
-    await recordEvent(tx, workspace.id, user.id, { action: 'site.deleted', subjectType: 'site', subjectId: siteId, detail: { name: existing.name } });
-    return true;
-  });
+  const deleted = await deleteRecorded(db, workspace.id, user.id, (tx) => deleteSite(tx, workspace.id, siteId), { action: 'site.deleted', subjectType: 'site', subjectId: siteId, detail: { name: existing.name } });
   if (!deleted) throw notFound('Site');
   return new Response(null, { status: 204 });
 });

@@ -4,7 +4,7 @@ import { json, notFound } from '@/lib/api/errors';
 import { requirePermission } from '@/lib/auth/guards';
 import { siteInWorkspace } from '@/lib/api/site-scope';
 import { getDb } from '@/lib/db/client';
-import { atomically, recordEvent } from '@/lib/db/audit-log';
+import { deleteRecorded } from '@/lib/db/audit-log';
 import { PlanSpecSchema } from '@/lib/correction-plans/plan-spec';
 import { deletePlan, getPlan } from '@/lib/correction-plans/plans-store';
 import { replacePlan } from '@/lib/correction-plans/service';
@@ -37,11 +37,7 @@ export const DELETE = endpoint(async (ctx) => {
   const db = getDb();
   const existing = await getPlan(db, workspace.id, site.id, planId);
   if (!existing) throw notFound('Plan');
-  const deleted = await atomically(db, async (tx) => {
-    if (!(await deletePlan(tx, workspace.id, site.id, planId))) return false;
-    await recordEvent(tx, workspace.id, user.id, { action: 'plan.deleted', subjectType: 'correction_plan', subjectId: planId, detail: { siteId: site.id, name: existing.name } });
-    return true;
-  });
+  const deleted = await deleteRecorded(db, workspace.id, user.id, (tx) => deletePlan(tx, workspace.id, site.id, planId), { action: 'plan.deleted', subjectType: 'correction_plan', subjectId: planId, detail: { siteId: site.id, name: existing.name } });
   if (!deleted) throw notFound('Plan');
   return new Response(null, { status: 204 });
 });

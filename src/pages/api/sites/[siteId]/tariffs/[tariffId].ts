@@ -5,7 +5,7 @@ import { requirePermission } from '@/lib/auth/guards';
 import { siteInWorkspace } from '@/lib/api/site-scope';
 import { getDb } from '@/lib/db/client';
 import { deleteTariff, findTariffFrom, getTariff, updateTariff } from '@/lib/db/tariffs';
-import { atomically, recordEvent } from '@/lib/db/audit-log';
+import { atomically, deleteRecorded, recordEvent } from '@/lib/db/audit-log';
 import { TariffVersionSchema } from '@/lib/schemas/tariff';
 import { refuseUnfitDemandWindow } from '@/lib/tariff-editor/data-fit';
 
@@ -48,11 +48,7 @@ export const DELETE = endpoint(async (ctx) => {
   const db = getDb();
   const existing = await getTariff(db, workspace.id, site.id, tariffId);
   if (!existing) throw notFound('Tariff');
-  const deleted = await atomically(db, async (tx) => {
-    if (!(await deleteTariff(tx, workspace.id, site.id, tariffId))) return false;
-    await recordEvent(tx, workspace.id, user.id, { action: 'tariff.deleted', subjectType: 'tariff', subjectId: tariffId, detail: { siteId: site.id, name: existing.name, effectiveFrom: existing.effectiveFrom } });
-    return true;
-  });
+  const deleted = await deleteRecorded(db, workspace.id, user.id, (tx) => deleteTariff(tx, workspace.id, site.id, tariffId), { action: 'tariff.deleted', subjectType: 'tariff', subjectId: tariffId, detail: { siteId: site.id, name: existing.name, effectiveFrom: existing.effectiveFrom } });
   if (!deleted) throw notFound('Tariff');
   return new Response(null, { status: 204 });
 });

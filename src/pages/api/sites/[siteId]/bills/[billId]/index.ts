@@ -5,7 +5,7 @@ import { requirePermission } from '@/lib/auth/guards';
 import { siteInWorkspace } from '@/lib/api/site-scope';
 import { getDb } from '@/lib/db/client';
 import { deleteBill, getBill } from '@/lib/db/bills';
-import { atomically, recordEvent } from '@/lib/db/audit-log';
+import { deleteRecorded } from '@/lib/db/audit-log';
 
 export const prerender = false;
 const Params = z.object({ billId: z.string().min(1).max(64) });
@@ -17,11 +17,7 @@ export const DELETE = endpoint(async (ctx) => {
   const db = getDb();
   const b = await getBill(db, workspace.id, site.id, billId);
   if (!b) throw notFound('Bill');
-  const deleted = await atomically(db, async (tx) => {
-    if (!(await deleteBill(tx, workspace.id, site.id, billId))) return false;
-    await recordEvent(tx, workspace.id, user.id, { action: 'bill.deleted', subjectType: 'bill', subjectId: billId, detail: { siteId: site.id, periodStart: b.periodStart, periodEnd: b.periodEnd } });
-    return true;
-  });
+  const deleted = await deleteRecorded(db, workspace.id, user.id, (tx) => deleteBill(tx, workspace.id, site.id, billId), { action: 'bill.deleted', subjectType: 'bill', subjectId: billId, detail: { siteId: site.id, periodStart: b.periodStart, periodEnd: b.periodEnd } });
   if (!deleted) throw notFound('Bill');
   return new Response(null, { status: 204 });
 });
